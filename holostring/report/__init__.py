@@ -1,0 +1,1 @@
+"""Reporting: plots (matplotlib, Agg), tables and files, all functions of result objects."""
