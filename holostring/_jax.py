@@ -6,7 +6,7 @@ import os
 
 os.environ.setdefault("JAX_PLATFORMS", "cpu")
 
-import jax  # noqa: E402
+import jax
 
 jax.config.update("jax_enable_x64", True)
 

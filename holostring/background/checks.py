@@ -46,11 +46,15 @@ def check_metric(bg: Background) -> None:
         bad = ~np.isfinite(real) | bad_imag | (real <= 0)
         if np.any(bad):
             i = int(np.argmax(bad))
-            what = "is not finite" if not np.isfinite(real[i]) else (
-                "is complex" if bad_imag[i] else "vanishes or turns negative")
+            what = (
+                "is not finite"
+                if not np.isfinite(real[i])
+                else ("is complex" if bad_imag[i] else "vanishes or turns negative")
+            )
             raise InputError(
                 f"metric {name}",
-                f"{what} inside the domain at z={z[i]:.4g} (parameters {params}, IR end {bg.ir.kind} at {bg.z_ir:g})",
+                f"{what} inside the domain at z={z[i]:.4g} "
+                f"(parameters {params}, IR end {bg.ir.kind} at {bg.z_ir:g})",
             )
     if bg.ir.kind is IRKind.HORIZON:
         f_tt = bg.function("G_tt")(np.array([bg.z_ir]))

@@ -215,7 +215,7 @@ def _limit0(expr: sp.Expr, subs: dict[sp.Symbol, float]) -> float | None:
             value = complex(sp.N(lim.subs(subs)))
             if ok() and math.isfinite(value.real) and abs(value.imag) < 1e-14:
                 return value.real
-        except Exception:  # noqa: BLE001 - any sympy failure falls back to numerics
+        except Exception:  # noqa: S110 - sympy may fail on any user formula; numerics follow
             pass
     f = sp.lambdify(Z, expr.subs(subs), modules=["scipy", "numpy"])
     zs = np.array([1e-5, 1e-6, 1e-7])
@@ -227,10 +227,18 @@ def _limit0(expr: sp.Expr, subs: dict[sp.Symbol, float]) -> float | None:
 
 
 # --------------------------------------------------------------------------- confinement
-def _confinement(bg: Background, F: sp.Expr, subs: dict[sp.Symbol, float], notes: list[str]) -> dict[str, Any]:
+def _confinement(
+    bg: Background, F: sp.Expr, subs: dict[sp.Symbol, float], notes: list[str]
+) -> dict[str, Any]:
     g = bg.g
-    out: dict[str, Any] = {"confining": False, "criterion": "", "z_m": None, "sigma": None,
-                           "sigma_error": None, "sigma_exact": None}
+    out: dict[str, Any] = {
+        "confining": False,
+        "criterion": "",
+        "z_m": None,
+        "sigma": None,
+        "sigma_error": None,
+        "sigma_exact": None,
+    }
     Fn = bg.function("F")
     dFn = bg.function("dF")
     z_ir = bg.z_ir
@@ -241,31 +249,52 @@ def _confinement(bg: Background, F: sp.Expr, subs: dict[sp.Symbol, float], notes
         if sigma <= 0:
             out["criterion"] = "F has a minimum where it vanishes: no area law"
             return out
-        out.update(confining=True, z_m=z_m, sigma=sigma,
-                   criterion="F = sqrt(G_tt G_xx) has a minimum F(z_m) > 0 (KSS)")
+        out.update(
+            confining=True,
+            z_m=z_m,
+            sigma=sigma,
+            criterion="F = sqrt(G_tt G_xx) has a minimum F(z_m) > 0 (KSS)",
+        )
         # F is stationary at z_m, so the z_m error enters sigma only at second order
         d2 = _second_derivative(Fn, z_m)
         out["sigma_error"] = g * (0.5 * abs(d2) * z_m_err**2) + 4 * np.finfo(float).eps * sigma
         exact = _exact_minimum(bg, F, z_m)
         if exact is not None:
             z_exact, sigma_exact = exact
-            out.update(z_m=float(sp.N(z_exact.subs(subs))), sigma=g * float(sp.N(sigma_exact.subs(subs))), sigma_error=0.0,
-                       sigma_exact=str(sp.Symbol("g") * sigma_exact))
+            out.update(
+                z_m=float(sp.N(z_exact.subs(subs))),
+                sigma=g * float(sp.N(sigma_exact.subs(subs))),
+                sigma_error=0.0,
+                sigma_exact=str(sp.Symbol("g") * sigma_exact),
+            )
         if kind is IRKind.HORIZON:
-            out.update(confining=False,
-                       criterion="F has a local minimum but space ends at a horizon where F = 0: "
-                       "a linear regime at intermediate L, then screening")
-            notes.append("deconfined: the horizon screens long strings; see max_separation and "
-                         "screening_length from the potential command")
+            out.update(
+                confining=False,
+                criterion="F has a local minimum but space ends at a horizon where F = 0: "
+                "a linear regime at intermediate L, then screening",
+            )
+            notes.append(
+                "deconfined: the horizon screens long strings; see max_separation and "
+                "screening_length from the potential command"
+            )
         return out
     if kind in (IRKind.WALL, IRKind.CAP) and math.isfinite(z_ir):
         F_end = float(np.real(Fn(np.array([z_ir]))[0]))
         if F_end > 0:
-            crit = ("space ends at a wall where F > 0 (KSS)" if kind is IRKind.WALL
-                    else "H diverges where the circle shrinks, with F > 0 (KSS)")
+            crit = (
+                "space ends at a wall where F > 0 (KSS)"
+                if kind is IRKind.WALL
+                else "H diverges where the circle shrinks, with F > 0 (KSS)"
+            )
             expr = sp.simplify(F.subs(Z, bg.ir.at)) if bg.ir.at is not None else None
-            out.update(confining=True, z_m=z_ir, sigma=g * F_end, criterion=crit, sigma_error=0.0,
-                       sigma_exact=None if expr is None else str(sp.Symbol("g") * expr))
+            out.update(
+                confining=True,
+                z_m=z_ir,
+                sigma=g * F_end,
+                criterion=crit,
+                sigma_error=0.0,
+                sigma_exact=None if expr is None else str(sp.Symbol("g") * expr),
+            )
             return out
         out["criterion"] = "space ends where F vanishes: no area law"
         return out
@@ -317,7 +346,7 @@ def _exact_minimum(bg: Background, F: sp.Expr, z_numeric: float) -> tuple[sp.Exp
             dF = sp.together(sp.diff(sp.log(F), Z))
             numer = sp.numer(dF)
             sols = sp.solve(numer, Z)
-        except Exception:  # noqa: BLE001 - sympy may fail on user formulas: numeric result stands
+        except Exception:
             return None
         if not ok():
             return None
@@ -353,7 +382,7 @@ def _second_order(expr: sp.Expr) -> sp.Expr | None:
     with _time_limit(SYMBOLIC_TIME_LIMIT) as ok:
         try:
             ser = sp.series(Z**2 * expr, Z, 0, 3).removeO()
-        except Exception:  # noqa: BLE001
+        except Exception:
             return None
         if not ok():
             return None
@@ -381,7 +410,7 @@ def _temperature(bg: Background) -> float | None:
             num = complex(sp.N(val))
             if ok() and math.isfinite(num.real):
                 return abs(num.real) / (4 * math.pi)
-        except Exception:  # noqa: BLE001
+        except Exception:  # noqa: S110 - sympy may fail on any user formula; numerics follow
             pass
     z_h = bg.z_ir
     f = sp.lambdify(Z, expr.subs(subs), modules=["scipy", "numpy"])
@@ -398,18 +427,18 @@ def _time_limit(seconds: float) -> Any:
         yield lambda: True
         return
 
-    class _Timeout(Exception):
+    class _TimeoutError(Exception):
         pass
 
     def handler(signum: int, frame: Any) -> None:
         expired["flag"] = True
-        raise _Timeout
+        raise _TimeoutError
 
     old = signal.signal(signal.SIGALRM, handler)
     signal.setitimer(signal.ITIMER_REAL, seconds)
     try:
         yield lambda: not expired["flag"]
-    except _Timeout:
+    except _TimeoutError:
         pass
     finally:
         signal.setitimer(signal.ITIMER_REAL, 0)

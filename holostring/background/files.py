@@ -32,7 +32,15 @@ TOP_KEYS = {"background", "parameters", "let", "metric", "ir", "fields"}
 BACKGROUND_KEYS = {"name", "title", "source", "notes", "frame", "frame_rule", "energy_unit"}
 PARAMETER_KEYS = {"default", "range", "dimension", "meaning"}
 METRIC_KEYS = {
-    "warp", "A", "blackening", "dilaton", "G_tt", "G_xx", "G_zz", "circle", "internal_measure",
+    "warp",
+    "A",
+    "blackening",
+    "dilaton",
+    "G_tt",
+    "G_xx",
+    "G_zz",
+    "circle",
+    "internal_measure",
     "flat_directions",
 }
 IR_KEYS = {"kind", "at"}
@@ -289,7 +297,9 @@ class _Reader:
         if "circle" in metric:
             out["G_yy"] = self.formula("metric.circle", metric["circle"], names)
         if "internal_measure" in metric:
-            out["internal_measure"] = self.formula("metric.internal_measure", metric["internal_measure"], names)
+            out["internal_measure"] = self.formula(
+                "metric.internal_measure", metric["internal_measure"], names
+            )
         n_default = 2 if "circle" in metric else 3
         n = metric.get("flat_directions", n_default)
         if isinstance(n, bool) or not isinstance(n, int) or not 1 <= n <= 3:
@@ -332,7 +342,9 @@ class _Reader:
                     name=name,
                     spin=int(spin),
                     mass_squared=self.number(f"{key}.mass_squared", spec.get("mass_squared", 0.0)),
-                    dilaton_coupling=self.number(f"{key}.dilaton_coupling", spec.get("dilaton_coupling", 1.0)),
+                    dilaton_coupling=self.number(
+                        f"{key}.dilaton_coupling", spec.get("dilaton_coupling", 1.0)
+                    ),
                     frame=self.choice(f"{key}.frame", spec.get("frame", "einstein"), Frame),
                 )
             )

@@ -204,15 +204,11 @@ class _Builder:
                 except (TypeError, ValueError):
                     too_big = True
                 if too_big:
-                    raise FormulaError(
-                        f"exponent larger than {MAX_EXPONENT} in size", self.token(node.right)
-                    )
+                    raise FormulaError(f"exponent larger than {MAX_EXPONENT} in size", self.token(node.right))
             return sp.Pow(base, exponent)
         op = _BINOPS.get(type(node.op))
         if op is None:
-            raise FormulaError(
-                f"operator '{type(node.op).__name__}' is not allowed", self.token(node)
-            )
+            raise FormulaError(f"operator '{type(node.op).__name__}' is not allowed", self.token(node))
         left = self.build(node.left)
         right = self.build(node.right)
         if isinstance(node.op, ast.Div) and right == 0:

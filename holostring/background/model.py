@@ -93,9 +93,7 @@ class Parameter:
             Naming the parameter when the value is not a finite real number in range.
         """
         if isinstance(value, bool) or not isinstance(value, int | float | np.floating | np.integer):
-            raise InputError(
-                f"parameter {self.name}", f"expected a number, got {type(value).__name__}"
-            )
+            raise InputError(f"parameter {self.name}", f"expected a number, got {type(value).__name__}")
         x = float(value)
         if not math.isfinite(x):
             raise InputError(f"parameter {self.name}", f"{x} is not a finite number")
@@ -220,11 +218,11 @@ class Background:
     G_zz: sp.Expr
     frame: Frame = Frame.STRING
     frame_rule: FrameRule = FrameRule.TEN_D
-    dilaton: sp.Expr = sp.Integer(0)
+    dilaton: sp.Expr = sp.Integer(0)  # noqa: RUF009 - sympy numbers are immutable
     blackening: sp.Expr | None = None
     G_yy: sp.Expr | None = None
     n_flat: int = 3
-    internal_measure: sp.Expr = sp.Integer(1)
+    internal_measure: sp.Expr = sp.Integer(1)  # noqa: RUF009
     ir: IREnd = IREnd(IRKind.INFINITY)
     title: str = ""
     source: str = ""
@@ -277,8 +275,15 @@ class Background:
             if v is None:
                 raise InputError(f"parameter {p.name}", "no value given and no default")
             vals.append(p.check(v))
-        bg = cls(name=name, parameters=tuple(parameters), values=tuple(vals),
-                 G_tt=G_tt, G_xx=G_xx, G_zz=G_zz, **kwargs)
+        bg = cls(
+            name=name,
+            parameters=tuple(parameters),
+            values=tuple(vals),
+            G_tt=G_tt,
+            G_xx=G_xx,
+            G_zz=G_zz,
+            **kwargs,
+        )
         return bg.with_params(**given) if given else bg
 
     @classmethod
@@ -353,8 +358,7 @@ class Background:
         if self.G_yy is not None:
             comps["G_yy"] = self.G_yy
         out = {
-            k: convert(v, self.dilaton, self.frame_rule, self.frame, Frame(frame))
-            for k, v in comps.items()
+            k: convert(v, self.dilaton, self.frame_rule, self.frame, Frame(frame)) for k, v in comps.items()
         }
         self._compiled.expressions[key] = out  # type: ignore[assignment]
         return dict(out)

@@ -8,7 +8,6 @@ from __future__ import annotations
 
 import typer
 
-
 app = typer.Typer(
     name="holostring",
     help=(
@@ -20,7 +19,6 @@ app = typer.Typer(
     add_completion=False,
     pretty_exceptions_enable=False,
 )
-
 
 
 def _version(value: bool) -> None:

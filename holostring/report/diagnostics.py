@@ -16,7 +16,9 @@ def diagnostics_table(bg: Any, d: Any) -> Any:
     table.add_column("quantity", style="bold")
     table.add_column("value")
     table.add_row("source", bg.source or bg.origin)
-    table.add_row("frame", f"stored in the {bg.frame} frame (rule {bg.frame_rule}); strings use the string frame")
+    table.add_row(
+        "frame", f"stored in the {bg.frame} frame (rule {bg.frame_rule}); strings use the string frame"
+    )
     table.add_row("F = sqrt(G_tt G_xx)", d.formulas.get("F", ""))
     table.add_row("H = sqrt(G_tt G_zz)", d.formulas.get("H", ""))
     uv = "asymptotically AdS5" if d.asymptotically_ads else "not asymptotically AdS"
@@ -33,9 +35,14 @@ def diagnostics_table(bg: Any, d: Any) -> Any:
         closed = f" = {d.string_tension_exact}" if d.string_tension_exact else ""
         table.add_row("string tension sigma", f"{fmt(d.string_tension, 12)}  ({err}){closed}")
     if d.coulomb_coefficient is not None:
-        table.add_row("Coulomb coefficient kappa", f"{fmt(d.coulomb_coefficient, 12)} = {d.coulomb_coefficient_exact}")
+        table.add_row(
+            "Coulomb coefficient kappa", f"{fmt(d.coulomb_coefficient, 12)} = {d.coulomb_coefficient_exact}"
+        )
     if d.expansion_slope is not None:
-        table.add_row("small-L slope b (V = -kappa/L + C + b L)", f"{fmt(d.expansion_slope, 12)} = {d.expansion_slope_exact}")
+        table.add_row(
+            "small-L slope b (V = -kappa/L + C + b L)",
+            f"{fmt(d.expansion_slope, 12)} = {d.expansion_slope_exact}",
+        )
     if d.crossover_length is not None:
         table.add_row("crossover sqrt(kappa/sigma)", fmt(d.crossover_length, 8))
     if d.temperature is not None:

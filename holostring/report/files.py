@@ -57,8 +57,9 @@ def write_json(path: str | Path, data: Any) -> Path:
     return write_text_atomic(path, json.dumps(to_jsonable(data), indent=2) + "\n")
 
 
-def write_csv(path: str | Path, header: Sequence[str], rows: Iterable[Sequence[Any]],
-              comments: Sequence[str] = ()) -> Path:
+def write_csv(
+    path: str | Path, header: Sequence[str], rows: Iterable[Sequence[Any]], comments: Sequence[str] = ()
+) -> Path:
     """Write a CSV table atomically; ``comments`` become leading ``# `` lines."""
     buf = io.StringIO()
     for line in comments:

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from functools import lru_cache
+from functools import cache
 from importlib import resources
 
 from holostring.background.model import Background
@@ -19,7 +19,7 @@ def path_of(name: str) -> str:
     return str(resources.files(__name__) / f"{name}.toml")
 
 
-@lru_cache(maxsize=None)
+@cache
 def entry(name: str) -> Background:
     """Load a catalogue entry at its defaults (cached: compile once per run)."""
     from holostring.background.files import load_file
