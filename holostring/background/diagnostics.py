@@ -199,24 +199,37 @@ def _uv(bg: Background) -> tuple[bool, float | None]:
     m = bg.metric("string")
     subs = bg.substitutions()
     ads = True
+    memo = bg._compiled.memo
     for key in ("G_tt", "G_xx", "G_zz"):
-        lim = _limit0(Z**2 * m[key], subs)
+        lim = _limit0(Z**2 * m[key], subs, memo, f"uv:{key}")
         if lim is None or abs(lim - 1.0) > 1e-12:
             ads = False
-    power = _limit0(Z * sp.diff(sp.log(m["G_xx"]), Z), subs)
+    power = _limit0(Z * sp.diff(sp.log(m["G_xx"]), Z), subs, memo, "uv:power")
     return ads, power
 
 
-def _limit0(expr: sp.Expr, subs: dict[sp.Symbol, float]) -> float | None:
-    """lim_{z->0+} of expr at the current parameters: sympy first, numeric extrapolation after."""
-    with _time_limit(SYMBOLIC_TIME_LIMIT) as ok:
+def _limit0(expr: sp.Expr, subs: dict[sp.Symbol, float], memo: dict[str, Any], key: str) -> float | None:
+    """lim_{z->0+} of expr at the current parameters: sympy first, numeric extrapolation after.
+
+    The symbolic limit (in the parameter symbols) is computed once per background structure.
+    """
+    if key not in memo:
+        memo[key] = None
+        with _time_limit(SYMBOLIC_TIME_LIMIT) as ok:
+            try:
+                lim = sp.limit(sp.simplify(expr), Z, 0, "+")
+                if ok() and not lim.has(sp.oo, -sp.oo, sp.zoo, sp.nan, sp.Limit):
+                    memo[key] = lim
+            except Exception:  # noqa: S110 - sympy may fail on any user formula; numerics follow
+                pass
+    lim = memo[key]
+    if lim is not None:
         try:
-            lim = sp.limit(sp.simplify(expr), Z, 0, "+")
             value = complex(sp.N(lim.subs(subs)))
-            if ok() and math.isfinite(value.real) and abs(value.imag) < 1e-14:
-                return value.real
-        except Exception:  # noqa: S110 - sympy may fail on any user formula; numerics follow
-            pass
+        except (TypeError, ValueError):
+            value = complex(math.nan)
+        if math.isfinite(value.real) and abs(value.imag) < 1e-14:
+            return value.real
     f = sp.lambdify(Z, expr.subs(subs), modules=["scipy", "numpy"])
     zs = np.array([1e-5, 1e-6, 1e-7])
     with np.errstate(all="ignore"):
@@ -341,30 +354,40 @@ def _exact_minimum(bg: Background, F: sp.Expr, z_numeric: float) -> tuple[sp.Exp
     if sp.count_ops(F) > 80:
         return None
     subs = bg.substitutions()
-    with _time_limit(SYMBOLIC_TIME_LIMIT) as ok:
-        try:
-            dF = sp.together(sp.diff(sp.log(F), Z))
-            numer = sp.numer(dF)
-            sols = sp.solve(numer, Z)
-        except Exception:
-            return None
-        if not ok():
-            return None
-    for s in sols:
+    memo = bg._compiled.memo  # the closed-form roots depend on the formulas, not on the values
+    if "dF_roots" not in memo:
+        memo["dF_roots"] = None
+        with _time_limit(SYMBOLIC_TIME_LIMIT) as ok:
+            try:
+                dF = sp.together(sp.diff(sp.log(F), Z))
+                sols = sp.solve(sp.numer(dF), Z)
+            except Exception:
+                sols = None
+            if ok() and sols is not None:
+                memo["dF_roots"] = [
+                    (s, sp.simplify(positive_sqrt(sp.simplify(F.subs(Z, s) ** 2)))) for s in sols
+                ]
+    roots = memo["dF_roots"]
+    if roots is None:
+        return None
+    for s, value in roots:
         try:
             val = complex(sp.N(s.subs(subs)))
         except (TypeError, ValueError):
             continue
         if abs(val.imag) < 1e-12 and abs(val.real - z_numeric) < 1e-8 * max(1.0, z_numeric):
-            return s, sp.simplify(positive_sqrt(sp.simplify(F.subs(Z, s) ** 2)))
+            return s, value
     return None
 
 
 # --------------------------------------------------------------------------- small L
 def _slope(bg: Background, F: sp.Expr, H: sp.Expr, notes: list[str]) -> tuple[float | None, str | None]:
     coeffs = []
+    memo = bg._compiled.memo
     for name, expr in (("F", F), ("H", H)):
-        a = _second_order(expr)
+        if f"series:{name}" not in memo:
+            memo[f"series:{name}"] = _second_order(expr)
+        a = memo[f"series:{name}"]
         if a is None:
             notes.append(f"small-L slope not available: z^2 {name} is not 1 + a z^2 + O(z^3) at the boundary")
             return None, None

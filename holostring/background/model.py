@@ -171,6 +171,14 @@ class _Compiled:
     def __init__(self) -> None:
         self.functions: dict[tuple[str, str], Callable[..., Any]] = {}
         self.expressions: dict[str, sp.Expr] = {}
+        self.memo: dict[str, Any] = {}
+
+    def __getstate__(self) -> dict[str, Any]:
+        # compiled functions do not pickle; a worker process recompiles them once
+        return {}
+
+    def __setstate__(self, state: dict[str, Any]) -> None:
+        self.__init__()  # type: ignore[misc]
 
 
 @dataclass(frozen=True, eq=False)

@@ -1,0 +1,1 @@
+"""Fits of model outputs: observables, calibration targets, least-squares calibration."""

@@ -1,0 +1,274 @@
+"""Observables: named quantities the tool computes from a background, with their mass dimension.
+
+An observable is named by a short spec string, the same in target files, the API and the CLI:
+
+==============================  =====  ==========================================================
+spec                            dim    meaning
+==============================  =====  ==========================================================
+``string_tension``              2      sigma (symbolic/certified, background diagnostics)
+``sqrt_string_tension``         1      sqrt(sigma)
+``coulomb_coefficient_uv``      0      kappa = g 8 pi^3/Gamma(1/4)^4 (asymptotically AdS only)
+``coulomb_coefficient``         0      kappa of the Cornell fit of V(L)
+``r0`` / ``r1``                 -1     Sommer scales, r^2 dV/dL = 1.65 / 1.0
+``mass:CHANNEL:N``              1      N-th mass (N = 0 is the ground state) of a spectral channel
+``mass_squared:CHANNEL:N``      2      its square
+``ratio:CH1:N1/CH2:N2``         0      mass ratio m(CH1, N1)/m(CH2, N2)
+``critical_temperature``        1      Hawking-Page T_c
+``screening_length:T=X``        -1     screening length at temperature X (model units)
+==============================  =====  ==========================================================
+
+Values are in the model's units (powers of the background's energy unit); :mod:`holostring.units`
+converts. Each evaluation returns a :class:`Measurement` with its numerical error estimate.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Callable, Iterable
+from dataclasses import dataclass
+from typing import Any
+
+from holostring.errors import ConvergenceError, InputError, NotApplicableError
+
+SIMPLE = {
+    "string_tension": 2,
+    "sqrt_string_tension": 1,
+    "coulomb_coefficient_uv": 0,
+    "coulomb_coefficient": 0,
+    "r0": -1,
+    "r1": -1,
+    "critical_temperature": 1,
+}
+_CHANNEL = r"[A-Za-z][A-Za-z0-9_\-]*"
+_MASS = re.compile(rf"^(mass|mass_squared):({_CHANNEL}):(\d+)$")
+_RATIO = re.compile(rf"^ratio:({_CHANNEL}):(\d+)/({_CHANNEL}):(\d+)$")
+_SCREEN = re.compile(r"^screening_length:T=([0-9.eE+\-]+)$")
+
+
+@dataclass(frozen=True)
+class Measurement:
+    """A computed value with its numerical error estimate (absolute)."""
+
+    value: float
+    error: float
+
+    def to_dict(self) -> dict[str, float]:
+        """Plain-JSON view."""
+        return {"value": self.value, "error": self.error}
+
+
+@dataclass(frozen=True)
+class Observable:
+    """A parsed observable spec.
+
+    Attributes
+    ----------
+    spec
+        The text it was parsed from (canonical).
+    kind
+        One of the keys of :data:`SIMPLE`, or ``mass``, ``mass_squared``, ``ratio``, ``screening_length``.
+    dimension
+        Mass dimension of the value.
+    args
+        Channel names, state numbers or a temperature, by kind.
+    """
+
+    spec: str
+    kind: str
+    dimension: int
+    args: tuple[Any, ...] = ()
+
+
+def parse_observable(spec: str) -> Observable:
+    """Parse an observable spec (see the module docstring).
+
+    Raises
+    ------
+    InputError
+        Naming the spec and listing what is accepted.
+    """
+    if not isinstance(spec, str):
+        raise InputError("observable", f"expected text, got {type(spec).__name__}")
+    s = spec.strip()
+    if s in SIMPLE:
+        return Observable(s, s, SIMPLE[s])
+    m = _MASS.match(s)
+    if m:
+        kind = m.group(1)
+        return Observable(s, kind, 1 if kind == "mass" else 2, (m.group(2), int(m.group(3))))
+    m = _RATIO.match(s)
+    if m:
+        return Observable(s, "ratio", 0, (m.group(1), int(m.group(2)), m.group(3), int(m.group(4))))
+    m = _SCREEN.match(s)
+    if m:
+        try:
+            t = float(m.group(1))
+        except ValueError:
+            t = math.nan
+        if not (math.isfinite(t) and t > 0):
+            raise InputError(f"observable {s}", "the temperature must be a positive number")
+        return Observable(s, "screening_length", -1, (t,))
+    accepted = (
+        ", ".join(SIMPLE) + ", mass:CHANNEL:N, mass_squared:CHANNEL:N, ratio:CH:N/CH:N, screening_length:T=X"
+    )
+    raise InputError(f"observable {s}", f"unknown (accepted: {accepted})")
+
+
+def evaluate(
+    bg: Any, specs: Iterable[str | Observable], cache: dict[str, Any] | None = None
+) -> dict[str, Measurement]:
+    """Evaluate observables on one background; results of shared solves are reused.
+
+    Parameters
+    ----------
+    bg
+        A :class:`~holostring.background.Background` at the wanted parameter values.
+    specs
+        Observable specs or parsed observables.
+    cache
+        Optional dict reused across calls on the same background (solver results by key).
+
+    Returns
+    -------
+    dict
+        spec -> :class:`Measurement`, in the order given.
+
+    Raises
+    ------
+    HolostringError
+        When an observable does not exist for this background (e.g. no string tension) or a
+        solver did not converge.
+    """
+    memo: dict[str, Any] = {} if cache is None else cache
+    out: dict[str, Measurement] = {}
+    for item in specs:
+        obs = item if isinstance(item, Observable) else parse_observable(item)
+        out[obs.spec] = _EVALUATORS[obs.kind](bg, obs, memo)
+    return out
+
+
+# --------------------------------------------------------------------------- evaluators
+def _memo(memo: dict[str, Any], key: str, compute: Callable[[], Any]) -> Any:
+    if key not in memo:
+        memo[key] = compute()
+    return memo[key]
+
+
+def _diagnostics(bg: Any, memo: dict[str, Any]) -> Any:
+    from holostring.background.diagnostics import diagnose
+
+    return _memo(memo, "diagnostics", lambda: diagnose(bg))
+
+
+def _sigma(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    d = _diagnostics(bg, memo)
+    if not d.confining or d.string_tension is None:
+        raise NotApplicableError(f"{obs.spec}: background '{bg.name}' does not confine ({d.criterion})")
+    err = d.string_tension_error or 0.0
+    if obs.kind == "sqrt_string_tension":
+        root = math.sqrt(d.string_tension)
+        return Measurement(root, 0.5 * err / root)
+    return Measurement(d.string_tension, err)
+
+
+def _kappa_uv(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    d = _diagnostics(bg, memo)
+    if d.coulomb_coefficient is None:
+        raise NotApplicableError(f"{obs.spec}: background '{bg.name}' is not asymptotically AdS")
+    return Measurement(d.coulomb_coefficient, 0.0)
+
+
+def _potential(bg: Any, memo: dict[str, Any]) -> Any:
+    from holostring.strings import compute_potential
+
+    return _memo(memo, "potential", lambda: compute_potential(bg))
+
+
+def _from_potential(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    res = _potential(bg, memo)
+    value = getattr(res, obs.kind)
+    value = getattr(value, "value", value)
+    if value is None or not math.isfinite(float(value)):
+        reason = getattr(res, f"{obs.kind}_reason", None) or "no solution"
+        raise NotApplicableError(f"{obs.spec}: {reason}")
+    err = _error_of(res, obs.kind)
+    return Measurement(float(value), err)
+
+
+def _error_of(res: Any, name: str) -> float:
+    errors = getattr(res, "errors", None)
+    if isinstance(errors, dict) and name in errors:
+        return float(errors[name])
+    est = getattr(res, "error_estimate", 0.0)
+    if isinstance(est, dict):
+        return float(est.get(name, 0.0) or 0.0)
+    return float(est or 0.0)
+
+
+def _spectrum(bg: Any, channel: str, states: int, memo: dict[str, Any]) -> Any:
+    from holostring.spectra import solve_spectrum
+
+    key = f"spectrum:{channel}"
+    have = memo.get(key)
+    if have is None or len(have.masses) < states:
+        have = solve_spectrum(bg, channel, states=max(states, 4))
+        if not have.converged:
+            raise ConvergenceError(f"spectrum of {channel}: {have.message}", have)
+        memo[key] = have
+    return have
+
+
+def _mass(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    channel, n = obs.args
+    res = _spectrum(bg, channel, n + 1, memo)
+    m2 = float(res.masses_squared[n])
+    err2 = float(res.error_estimate[n])
+    if obs.kind == "mass_squared":
+        return Measurement(m2, err2)
+    m = math.sqrt(m2)
+    return Measurement(m, 0.5 * err2 / m)
+
+
+def _ratio(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    c1, n1, c2, n2 = obs.args
+    a = _mass(bg, Observable("", "mass", 1, (c1, n1)), memo)
+    b = _mass(bg, Observable("", "mass", 1, (c2, n2)), memo)
+    r = a.value / b.value
+    return Measurement(r, r * math.hypot(a.error / a.value, b.error / b.value))
+
+
+def _critical_temperature(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    from holostring.thermo import critical_temperature
+
+    res = _memo(memo, "transition", lambda: critical_temperature(bg))
+    value = res.critical_temperature
+    if value is None:
+        raise NotApplicableError(f"{obs.spec}: {getattr(res, 'message', 'no transition found')}")
+    return Measurement(float(value), float(getattr(res, "error_estimate", 0.0) or 0.0))
+
+
+def _screening(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    from holostring.thermo import screening_at
+
+    (t,) = obs.args
+    res = _memo(memo, f"screening:{t!r}", lambda: screening_at(bg, t))
+    value = res.screening_length
+    if value is None:
+        raise NotApplicableError(f"{obs.spec}: no screening length at T={t:g}")
+    return Measurement(float(value), float(getattr(res, "error_estimate", 0.0) or 0.0))
+
+
+_EVALUATORS: dict[str, Callable[[Any, Observable, dict[str, Any]], Measurement]] = {
+    "string_tension": _sigma,
+    "sqrt_string_tension": _sigma,
+    "coulomb_coefficient_uv": _kappa_uv,
+    "coulomb_coefficient": _from_potential,
+    "r0": _from_potential,
+    "r1": _from_potential,
+    "mass": _mass,
+    "mass_squared": _mass,
+    "ratio": _ratio,
+    "critical_temperature": _critical_temperature,
+    "screening_length": _screening,
+}
