@@ -35,5 +35,13 @@ def pyplot() -> Any:
 
 
 def caption(fig: Any, text: str) -> None:
-    """A small grey footer line (background, parameters, scheme) under a figure."""
-    fig.text(0.01, -0.02, text, fontsize=7.5, color="#666666", ha="left", va="top")
+    """A small grey footer line (background, parameters, scheme) below everything else drawn.
+
+    Call it last, after labels and legends: it measures the drawn figure and sits under it.
+    """
+    renderer = fig.canvas.get_renderer()
+    box = fig.get_tightbbox(renderer)
+    height = fig.get_figheight()
+    y = box.y0 / height - 0.012 * 6.4 / height
+    x = max(box.x0 / fig.get_figwidth(), 0.0)
+    fig.text(x, y, text, fontsize=7.5, color="#666666", ha="left", va="top")

@@ -1,0 +1,158 @@
+"""Calibration against exact inversions of closed forms."""
+
+import json
+import math
+
+import pytest
+from typer.testing import CliRunner
+
+from holostring.background import load_background
+from holostring.cli import app
+from holostring.errors import BackgroundFileError, InputError
+from holostring.fit.calibrate import calibrate
+from holostring.fit.observables import parse_observable
+from holostring.fit.targets import parse_targets, unit_factor
+from holostring.units import HBARC_GEV_FM
+
+
+def targets(obs, value, unc, unit, free=("c",), fixed=None, predict=()):
+    doc = {
+        "parameters": {n: {"free": True} for n in free},
+        "targets": [{"observable": obs, "value": value, "uncertainty": unc, "unit": unit}],
+    }
+    for k, v in (fixed or {}).items():
+        doc["parameters"][k] = {"value": v}
+    if predict:
+        doc["predict"] = {"observables": list(predict)}
+    return parse_targets(doc)
+
+
+def test_string_tension_inverts_the_closed_form():
+    # soft wall sigma = g e c / 2 (Andreev-Zakharov hep-ph/0604204): c = 2 sigma/(g e)
+    res = calibrate(
+        load_background("soft-wall"), targets("string_tension", 0.18, 0.01, "GeV^2", fixed={"g": 1.0})
+    )
+    assert res.converged
+    assert res.values["c"] == pytest.approx(2 * 0.18 / math.e, rel=1e-10)
+    # linear propagation: dc = 2 dsigma / e
+    assert res.uncertainties["c"] == pytest.approx(2 * 0.01 / math.e, rel=1e-6)
+    assert res.units["c"] == "GeV^2"
+    assert res.dof == 0 and res.chi2 < 1e-16
+
+
+def test_sqrt_sigma_in_mev_and_prediction_of_sigma():
+    res = calibrate(
+        load_background("soft-wall", g=2.0),
+        targets("sqrt_string_tension", 440.0, 10.0, "MeV", predict=["string_tension"]),
+    )
+    c = 2 * 0.44**2 / (2.0 * math.e)
+    assert res.values["c"] == pytest.approx(c, rel=1e-10)
+    sigma = next(p for p in res.predictions if p.observable == "string_tension")
+    assert sigma.value == pytest.approx(0.44**2, rel=1e-10)
+    # d sigma = 2 sqrt(sigma) d sqrt(sigma)
+    assert sigma.uncertainty == pytest.approx(2 * 0.44 * 0.010, rel=1e-6)
+
+
+def test_overdetermined_fit_has_chi2():
+    doc = {
+        "parameters": {"z0": {"free": True}, "g": {"value": 1.0}},
+        "targets": [
+            {"observable": "string_tension", "value": 0.16, "uncertainty": 0.01, "unit": "GeV^2"},
+            {"observable": "sqrt_string_tension", "value": 0.42, "uncertainty": 0.01, "unit": "GeV"},
+        ],
+    }
+    res = calibrate(load_background("hard-wall"), parse_targets(doc))
+    # hard wall sigma = g/z0^2 (KSS hep-th/9811192): weighted least squares in sigma(z0)
+    assert res.converged and res.dof == 1
+    assert res.chi2 > 0
+    s = 1 / res.values["z0"] ** 2
+    # stationarity of chi^2 in s: (s - .16)/.01^2 + (sqrt(s) - .42)/(.01^2 * 2 sqrt(s)) = 0
+    grad = (s - 0.16) / 0.01**2 + (math.sqrt(s) - 0.42) / (0.01**2 * 2 * math.sqrt(s))
+    assert abs(grad) < 1e-6 * (1 / 0.01**2)
+
+
+def test_units():
+    # hbar c = 0.1973269804 GeV fm (CODATA, common practice)
+    assert unit_factor("fm", -1) == pytest.approx(1 / HBARC_GEV_FM)
+    assert unit_factor("MeV^2", 2) == pytest.approx(1e-6)
+    with pytest.raises(ValueError, match="mass dimension"):
+        unit_factor("GeV", 2)
+    with pytest.raises(ValueError, match="unknown unit"):
+        unit_factor("furlong", 1)
+
+
+@pytest.mark.parametrize(
+    ("doc", "key"),
+    [
+        ({"parameters": {"c": {"free": True}}, "targets": []}, "targets"),
+        (
+            {
+                "parameters": {},
+                "targets": [{"observable": "r0", "value": 0.5, "uncertainty": 0.01, "unit": "fm"}],
+            },
+            "parameters",
+        ),
+        (
+            {
+                "parameters": {"c": {"free": True}},
+                "targets": [{"observable": "nonsense", "value": 1, "uncertainty": 1}],
+            },
+            "targets[0].observable",
+        ),
+        (
+            {
+                "parameters": {"c": {"free": True}},
+                "targets": [{"observable": "r0", "value": 1, "uncertainty": -1, "unit": "fm"}],
+            },
+            "targets[0].uncertainty",
+        ),
+        (
+            {
+                "parameters": {"c": {"free": True}},
+                "targets": [{"observable": "r0", "value": 1, "uncertainty": 1, "unit": "GeV"}],
+            },
+            "targets[0].unit",
+        ),
+        (
+            {
+                "parameters": {"c": {"free": "yes"}},
+                "targets": [{"observable": "r0", "value": 1, "uncertainty": 1, "unit": "fm"}],
+            },
+            "parameters.c",
+        ),
+        ({"oops": {}}, "oops"),
+    ],
+)
+def test_bad_targets(doc, key):
+    with pytest.raises(BackgroundFileError) as info:
+        parse_targets(doc)
+    assert f"'{key}'" in str(info.value)
+
+
+def test_unknown_free_parameter():
+    with pytest.raises(InputError, match="parameter q"):
+        calibrate(load_background("soft-wall"), targets("string_tension", 0.2, 0.01, "GeV^2", free=("q",)))
+
+
+def test_observable_specs():
+    assert parse_observable("mass:vector-meson:0").args == ("vector-meson", 0)
+    assert parse_observable("ratio:tensor-glueball:0/scalar-glueball:0").dimension == 0
+    assert parse_observable("screening_length:T=0.2").args == (0.2,)
+    with pytest.raises(InputError):
+        parse_observable("screening_length:T=-1")
+
+
+def test_cli_calibrate(tmp_path):
+    tf = tmp_path / "t.toml"
+    tf.write_text(
+        '[parameters.c]\nfree = true\n[[targets]]\nobservable = "string_tension"\nvalue = 0.2\n'
+        'uncertainty = 0.01\nunit = "GeV^2"\n'
+    )
+    out = tmp_path / "out"
+    r = CliRunner().invoke(app, ["calibrate", "soft-wall", str(tf), "--json", "--out", str(out)])
+    assert r.exit_code == 0, r.output
+    d = json.loads(r.stdout)
+    assert d["fitted"]["c"]["value"] == pytest.approx(0.4 / math.e, rel=1e-10)
+    assert {p.name for p in out.iterdir()} == {"calibration.json", "predictions.csv", "residuals.png"}
+    bad = CliRunner().invoke(app, ["calibrate", "soft-wall", str(tmp_path / "missing.toml")])
+    assert bad.exit_code == 2 and "no such file" in bad.stderr
