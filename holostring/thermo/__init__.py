@@ -12,11 +12,13 @@ from __future__ import annotations
 from holostring.thermo.hawking_page import compute_transition
 from holostring.thermo.partners import ThermalFamily, thermal_family
 from holostring.thermo.results import ScreeningResult, TransitionResult
+from holostring.thermo.screening import compute_screening
 
 __all__ = [
     "ScreeningResult",
     "ThermalFamily",
     "TransitionResult",
+    "compute_screening",
     "compute_transition",
     "thermal_family",
 ]

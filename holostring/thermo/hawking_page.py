@@ -178,7 +178,7 @@ def compute_transition(
         A zero-temperature background (hard wall, soft wall, user throat) or a black brane
         (catalogue or a file with its own blackening), or a :class:`ThermalFamily`.
     t_range
-        Temperatures (T_min, T_max) of the returned curve; default (0.5 T_c, 2.5 T_c), or the
+        Temperatures (T_min, T_max) of the returned curve; default (0.7 T_c, 2.5 T_c), or the
         temperatures of z_h in (scale/4, 4 scale) without a transition.
     points
         Number of temperatures on the curve.
@@ -218,6 +218,13 @@ def compute_transition(
     grid = np.geomspace(1e-3 * scale, 1e3 * scale, 241)
     messages: list[str] = []
     converged = True
+    try:
+        act.free_energy(scale)
+    except ConvergenceError as err:
+        raise NotApplicableError(
+            f"background '{fam.name}': the on-shell action integral does not converge ({err}); "
+            "the Hawking-Page comparison needs a finite thermal action "
+            "(e^-Phi sqrt(g) (R + 12) must fall off in the IR)") from None
     dF = np.empty_like(grid)
     for i, zh in enumerate(grid):
         try:
@@ -254,7 +261,7 @@ def compute_transition(
     # the curve
     if t_range is None:
         if t_c is not None:
-            t_range = (0.5 * t_c, 2.5 * t_c)
+            t_range = (0.7 * t_c, 2.5 * t_c)
         else:
             ts = fam.temperature(np.array([4 * scale, 0.25 * scale]))
             t_range = (float(min(ts)), float(max(ts)))
