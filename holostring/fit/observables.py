@@ -238,25 +238,35 @@ def _ratio(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
     return Measurement(r, r * math.hypot(a.error / a.value, b.error / b.value))
 
 
-def _critical_temperature(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
-    from holostring.thermo import critical_temperature
+def _transition(bg: Any, memo: dict[str, Any]) -> Any:
+    from holostring.thermo import compute_transition
 
-    res = _memo(memo, "transition", lambda: critical_temperature(bg))
+    return _memo(memo, "transition", lambda: compute_transition(bg, points=9))
+
+
+def _critical_temperature(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
+    res = _transition(bg, memo)
     value = res.critical_temperature
     if value is None:
-        raise NotApplicableError(f"{obs.spec}: {getattr(res, 'message', 'no transition found')}")
-    return Measurement(float(value), float(getattr(res, "error_estimate", 0.0) or 0.0))
+        raise NotApplicableError(f"{obs.spec}: {res.message or 'no Hawking-Page transition'}")
+    return Measurement(float(value), float(res.critical_temperature_error or 0.0))
 
 
 def _screening(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measurement:
-    from holostring.thermo import screening_at
+    import numpy as np
+
+    from holostring.thermo import compute_screening
 
     (t,) = obs.args
-    res = _memo(memo, f"screening:{t!r}", lambda: screening_at(bg, t))
-    value = res.screening_length
-    if value is None:
-        raise NotApplicableError(f"{obs.spec}: no screening length at T={t:g}")
-    return Measurement(float(value), float(getattr(res, "error_estimate", 0.0) or 0.0))
+    res = _memo(
+        memo,
+        f"screening:{t!r}",
+        lambda: compute_screening(bg, temperatures=np.array([t]), transition=memo.get("transition")),
+    )
+    value = float(res.screening_length[0])
+    if not np.isfinite(value):
+        raise NotApplicableError(f"{obs.spec}: no screening length at T={t:g} ({res.message})")
+    return Measurement(value, float(res.errors[0]))
 
 
 _EVALUATORS: dict[str, Callable[[Any, Observable, dict[str, Any]], Measurement]] = {

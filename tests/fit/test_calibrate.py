@@ -156,3 +156,26 @@ def test_cli_calibrate(tmp_path):
     assert {p.name for p in out.iterdir()} == {"calibration.json", "predictions.csv", "residuals.png"}
     bad = CliRunner().invoke(app, ["calibrate", "soft-wall", str(tmp_path / "missing.toml")])
     assert bad.exit_code == 2 and "no such file" in bad.stderr
+
+
+def test_rho_mass_fixes_c():
+    # m_rho^2 = 4c (Karch-Katz-Son-Stephanov hep-ph/0602229, vector mesons m_n^2 = 4c(n+1));
+    # rho mass 0.775 GeV (PDG, from memory, rounded): c = 0.775^2/4 = 0.15015625 GeV^2
+    res = calibrate(load_background("soft-wall"), targets("mass:vector-meson:0", 0.775, 0.001, "GeV"))
+    assert res.converged
+    assert res.values["c"] == pytest.approx(0.775**2 / 4, rel=1e-9)
+    assert f"{res.values['c']:.3f}" == "0.150"
+    # dc = (m/2) dm
+    assert res.uncertainties["c"] == pytest.approx(0.775 / 2 * 0.001, rel=1e-5)
+
+
+def test_example_targets_file_loads():
+    from pathlib import Path
+
+    from holostring.fit.targets import load_targets
+
+    root = Path(__file__).resolve().parents[2] / "examples" / "targets"
+    for path in root.glob("*.toml"):
+        ts = load_targets(path)
+        assert ts.targets and ts.free
+        assert all(t.source for t in ts.targets)
