@@ -20,6 +20,7 @@ RANK = {
     "fit": 3,
     "scan": 4,
     "calibrate": 4,
+    "workflow": 4,
     "report": 5,
     "cli": 6,
 }
