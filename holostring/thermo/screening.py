@@ -22,7 +22,7 @@ from typing import Any
 import numpy as np
 
 from holostring.background.model import Background
-from holostring.errors import ConvergenceError, HolostringError, InputError
+from holostring.errors import ConvergenceError, HolostringError, InputError, NotApplicableError
 from holostring.provenance import Provenance
 from holostring.thermo.partners import ThermalFamily, thermal_family
 from holostring.thermo.results import ScreeningResult, TransitionResult
@@ -110,7 +110,12 @@ def compute_screening(
     >>> round(res.max_separation[0] * 3.14159265 * 0.5, 3)  # doctest: +SKIP
     0.869
     """
-    from holostring.strings import compute_potential
+    try:
+        from holostring.strings import compute_potential
+    except ImportError:
+        raise NotApplicableError(
+            "screening needs the static-string solver holostring.strings.compute_potential, "
+            "which this installation lacks") from None
 
     fam = background if isinstance(background, ThermalFamily) else thermal_family(background)
     t_c = None
