@@ -228,12 +228,13 @@ def mass_squared_gradient(
     domain variation (common practice).
     """
     from holostring.spectra.boundary import BoundaryKind
-    from holostring.spectra.solve import _gl_nodes, _normalised_u, _solve
+    from holostring.spectra.solve import _gl_nodes, _normalised_u, _single_thread, _solve
 
     names = parameters or [p.name for p in background.parameters if p.name != "g"]
     for name in names:
         background.parameter(name)
-    out, prob = _solve(background, channel, int(n) + 1, boundary, None, tol)
+    with _single_thread():
+        out, prob = _solve(background, channel, int(n) + 1, boundary, None, tol)
     V, col = out["V_col"]
     lam = float(out["lam"][n])
     u_nodes = _normalised_u(prob, V[:, [n]], col)

@@ -17,6 +17,7 @@ J.-P. Berrut & L. N. Trefethen, SIAM Review 46 (2004) 501 (barycentric interpola
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -89,9 +90,15 @@ def interpolation_matrix(x: np.ndarray, w: np.ndarray, targets: np.ndarray) -> n
     return E
 
 
+@functools.lru_cache(maxsize=32)
 def gauss_legendre(m: int) -> tuple[np.ndarray, np.ndarray]:
-    """Gauss-Legendre nodes and weights on [-1, 1] (numpy's ``leggauss``)."""
-    return np.polynomial.legendre.leggauss(m)
+    """Gauss-Legendre nodes and weights on [-1, 1] (``scipy.special.roots_legendre``, cached)."""
+    from scipy.special import roots_legendre
+
+    x, w = roots_legendre(m)
+    x.setflags(write=False)
+    w.setflags(write=False)
+    return x, w
 
 
 @dataclass(frozen=True)
