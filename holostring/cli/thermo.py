@@ -34,6 +34,8 @@ def thermo(
     Compares the regularised on-shell actions of the thermal and black-brane geometries
     (Hawking-Page) and scans the static string in the black brane.
     """
+    import math
+
     from holostring.errors import InputError, NotApplicableError
     from holostring.thermo import compute_screening, compute_transition, thermal_family
 
@@ -56,7 +58,8 @@ def thermo(
     if screening:
         t0 = transition.critical_temperature
         if t0 is None:
-            t0 = float(family.temperature(2.0 * family.scale))
+            zh0 = 0.9 * family.wall if math.isfinite(family.wall) else 2.0 * family.scale
+            t0 = float(family.temperature(zh0))
         try:
             scr = compute_screening(family, transition=transition, t_range=(t0, t_max * t0),
                                     points=points)

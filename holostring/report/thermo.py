@@ -108,7 +108,7 @@ def print_summary(transition: Any, screening: Any | None) -> None:
             out.print(f"note: {transition.message}")
     out.print(f"regularisation: {transition.regularisation}")
     tu = unit or "model units"
-    table = Table(title="free-energy difference (< 0: black brane, deconfined)")
+    table = Table(title="free-energy difference (negative: deconfined)")
     table.add_column(f"T [{tu}]", justify="right")
     table.add_column("T/T_c", justify="right")
     table.add_column("2κ²ΔF/L³" + (f" [{unit}^4]" if unit else ""), justify="right")
@@ -119,36 +119,45 @@ def print_summary(transition: Any, screening: Any | None) -> None:
                       fmt(float(transition.free_energy_difference[i]), 6))
     out.print(table)
     if screening is not None:
-        lu = f"{unit}^-1" if unit else "model units"
         st = Table(title="screening in the black-brane phase")
-        st.add_column(f"T [{tu}]", justify="right")
         if unit:
-            st.add_column("T [MeV]", justify="right")
-        st.add_column(f"L_max [{lu}]", justify="right")
-        st.add_column(f"L_s [{lu}]", justify="right")
-        if unit:
-            st.add_column("L_s [fm]", justify="right")
-        st.add_column("L_max T", justify="right")
-        st.add_column("L_s T", justify="right")
+            st.add_column("T (MeV)", justify="right")
+            st.add_column("L_max (fm)", justify="right")
+            st.add_column("L_s (fm)", justify="right")
+        else:
+            st.add_column("T", justify="right")
+            st.add_column("L_max", justify="right")
+            st.add_column("L_s", justify="right")
+        st.add_column("L_max·T", justify="right")
+        st.add_column("L_s·T", justify="right")
+        st.add_column("error", justify="right")
         st.add_column("ok", justify="center")
         for i, t in enumerate(screening.temperatures):
+            t = float(t)
             lm, ls = float(screening.max_separation[i]), float(screening.screening_length[i])
-            cells = [fmt(float(t), 6)]
             if unit:
-                cells.append(fmt(_mev(float(t), unit), 5))
-            cells += [fmt(lm if math.isfinite(lm) else None, 6),
-                      fmt(ls if math.isfinite(ls) else None, 6)]
-            if unit:
-                cells.append(fmt(_fm(ls, unit), 5))
-            cells += [fmt(lm * t if math.isfinite(lm) else None, 8),
-                      fmt(ls * t if math.isfinite(ls) else None, 8),
+                cells = [fmt(_mev(t, unit), 5), fmt(_fm(lm, unit), 5), fmt(_fm(ls, unit), 5)]
+            else:
+                cells = [fmt(t, 6), fmt(lm if math.isfinite(lm) else None, 7),
+                         fmt(ls if math.isfinite(ls) else None, 7)]
+            cells += [fmt(lm * t if math.isfinite(lm) else None, 7),
+                      fmt(ls * t if math.isfinite(ls) else None, 7),
+                      f"{float(screening.errors[i]):.0e}",
                       "yes" if screening.converged_points[i] else "NO"]
             st.add_row(*cells)
         out.print(st)
         s0 = screening.string_tension_below
-        out.print("string tension below T_c: "
-                  + (f"{fmt(s0, 8)} (T-independent: the thermal geometry does not change with T)"
-                     if s0 else "none (the zero-temperature background does not confine)"))
+        if s0:
+            su = f" {unit}^2 (sqrt: {_mev(math.sqrt(s0), unit):.1f} MeV)" if unit else ""
+            if screening.critical_temperature is None:
+                out.print(f"zero-temperature string tension: {fmt(s0, 8)}{su} (no transition "
+                          "found, so no confined range of T)")
+            else:
+                out.print(f"string tension below T_c: {fmt(s0, 8)}{su}, T-independent (the "
+                          "thermal geometry does not change with T)")
+        else:
+            out.print("string tension below T_c: none (the zero-temperature background does not "
+                      "confine)")
         if screening.message != "ok":
             out.print(f"note: {screening.message}")
     out.print(f"[dim]{limits_statement()}[/dim]")
@@ -228,16 +237,21 @@ def plot_screening(screening: Any, axes: Any = None) -> Any:
     ax1.plot(tx, ylm, "o-", ms=3.5, color=COLORS[0], label=r"$L_{\max}$ (largest connected string)")
     ax1.plot(tx, yls, "s-", ms=3.5, color=COLORS[1], label=r"$L_s$ (screening length)")
     ax1.set_ylim(bottom=0)
+    if tc := screening.critical_temperature:
+        xc = _mev(tc, unit) if unit else tc
+        ax1.axvline(xc, color="#666666", lw=0.8, ls="--")
+        ax1.text(xc, 0.03, r" $T_c$", transform=ax1.get_xaxis_transform(), fontsize=9)
     ax1.legend(fontsize=9)
     ax1.set_title("separations in the black-brane phase", fontsize=11)
-    tc = screening.critical_temperature
     xr = T / tc if tc else T
     ax2.plot(xr, lm * T, "o-", ms=3.5, color=COLORS[0], label=r"$L_{\max}\,T$")
     ax2.plot(xr, ls * T, "s-", ms=3.5, color=COLORS[1], label=r"$L_s\,T$")
-    ax2.axhline(0.869 / np.pi, color=COLORS[0], lw=0.8, ls=":", label=r"AdS$_5$ black brane")
+    # conformal (AdS5 black brane) values L pi T = 0.869, 0.754 (Rey-Theisen-Yee hep-th/9803135)
+    ax2.axhline(0.869 / np.pi, color=COLORS[0], lw=0.8, ls=":",
+                label=r"AdS$_5$ black brane: $0.869/\pi$, $0.754/\pi$")
     ax2.axhline(0.754 / np.pi, color=COLORS[1], lw=0.8, ls=":")
     ax2.set_xlabel(r"$T / T_c$" if tc else ("T [" + (unit or "model units") + "]"))
-    ax2.set_ylabel(r"length $\times$ T")
+    ax2.set_ylabel(r"$L\,T$ (dimensionless)")
     ax2.legend(fontsize=9)
     ax2.set_title("scaled by T (conformal values dotted)", fontsize=11)
     return axes

@@ -46,7 +46,8 @@ def _temperature_grid(
         if t_c is not None:
             t_range = (t_c, 3.0 * t_c)
         else:
-            ts = fam.temperature(np.array([2.0 * fam.scale, 0.25 * fam.scale]))
+            zh0 = 0.9 * fam.wall if math.isfinite(fam.wall) else 2.0 * fam.scale
+            ts = fam.temperature(np.array([zh0, zh0 / 8]))
             t_range = (float(min(ts)), float(max(ts)))
     lo, hi = t_range
     if not (0 < lo < hi and math.isfinite(hi)):

@@ -79,3 +79,19 @@ def test_bad_input_exit_2_one_line(args, needle):
     assert r.exit_code == 2
     assert needle in r.output
     assert "Traceback" not in r.output
+
+
+def test_json_screening_rows_and_plots(tmp_path):
+    out = tmp_path / "hw"
+    r = run("thermo", "hard-wall", "-p", "z0=1", "--points", "2", "--json", "--out", str(out))
+    assert r.exit_code == 0, r.output
+    d = json.loads(r.stdout)
+    rows = d["screening"]
+    assert len(rows) == 2
+    lmax_ref, ls_ref = ref.ads_black_brane_screening()  # hard wall above T_c = AdS black brane
+    for row in rows:
+        assert row["max_separation"] * row["temperature"] * math.pi == pytest.approx(lmax_ref, rel=1e-9)
+        assert row["screening_length"] * row["temperature"] * math.pi == pytest.approx(ls_ref, rel=1e-9)
+    assert d["string_tension_below_tc"] == pytest.approx(1.0, rel=1e-10)
+    for name in ("screening.csv", "screening_length.png", "free_energy.png"):
+        assert (out / name).stat().st_size > 0
