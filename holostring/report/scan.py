@@ -182,12 +182,16 @@ def plot_scan_map(result: Any, observable: str, ax: Any = None) -> Any:
         ax.set_xlim(min(ex[0], ex[-1]), max(ex[0], ex[-1]))
         ax.set_ylim(min(ey[0], ey[-1]), max(ey[0], ey[-1]))
         ax.grid(False)
+        if failed.any():
+            handles.append(Patch(label=f"failed ({int(failed.sum())})", **FAILED_STYLE))
     else:
         mesh = ax.scatter(xs[~failed], ys[~failed], c=vals[~failed], cmap="viridis", s=14)
         if failed.any():
-            ax.plot(xs[failed], ys[failed], "x", color="#8c8c8c", ms=5)
-    if failed.any():
-        handles.append(Patch(label=f"failed ({int(failed.sum())})", **FAILED_STYLE))
+            (cross,) = ax.plot(
+                xs[failed], ys[failed], "x", color="#8c8c8c", ms=5, label=f"failed ({int(failed.sum())})"
+            )
+            handles.append(cross)
+    if handles:
         ax.legend(handles=handles, loc="upper left", bbox_to_anchor=(0.0, 1.12), fontsize=8.5, ncols=1)
     if (~failed).any():
         cb = ax.figure.colorbar(mesh, ax=ax)
@@ -251,9 +255,15 @@ def failure_groups(result: Any, limit: int = 6) -> list[tuple[str, int, str]]:
         g = groups.setdefault(_pattern(r.message), [r.message, 0, r.point])
         g[1] += 1
     out = []
-    for msg, count, point in sorted(groups.values(), key=lambda g: -g[1])[:limit]:
+    ordered = sorted(groups.values(), key=lambda g: -g[1])
+    for msg, count, point in ordered[:limit]:
         where = ", ".join(f"{k}={v:.6g}" for k, v in point.items())
         out.append((msg, count, where))
+    rest = ordered[limit:]
+    if rest:
+        out.append(
+            (f"{len(rest)} other reasons (see the message column of the table)", sum(g[1] for g in rest), "")
+        )
     return out
 
 
@@ -264,12 +274,12 @@ def scan_summary(result: Any) -> list[Any]:
     from holostring.report.tables import fmt
 
     head = Table(title=f"scan of {result.background}: {result.message}", title_justify="left")
-    head.add_column("observable")
+    head.add_column("observable", no_wrap=True)
     head.add_column("unit")
     head.add_column("computed", justify="right")
     head.add_column("min", justify="right")
     head.add_column("max", justify="right")
-    head.add_column("largest error", justify="right")
+    head.add_column("max error", justify="right")
     for s in result.observables:
         vals = [v for v in result.column(s) if math.isfinite(v)]
         errs = [v for v in result.errors(s) if math.isfinite(v)]

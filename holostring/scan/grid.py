@@ -320,7 +320,7 @@ def _execute(
     if executor is None and scheduler is None and workers == 1:
         for i, pt in todo:  # in process: one row at a time, for a fine progress bar
             finished([evaluate_point(bg, names, specs, i, pt)])
-        return "in-process"
+        return "this process"
     pool = None
     if executor is not None:
         label = type(executor).__name__

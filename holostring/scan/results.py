@@ -103,7 +103,7 @@ class ScanResult:
     elapsed
         Wall time of this run in seconds.
     executor
-        What ran the points (``"in-process"``, ``"processes(2)"``, ``"dask"``, or a class name).
+        What ran the points (``"this process"``, ``"processes(2)"``, ``"dask"``, or a class name).
     provenance
         Background, fixed parameters and scan settings.
     """
