@@ -22,6 +22,7 @@ eigenvalues, comparison of two resolutions).
 from __future__ import annotations
 
 import contextlib
+import functools
 import math
 from dataclasses import dataclass, field
 from typing import Any
@@ -292,6 +293,13 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
     }, prob
 
 
+@functools.lru_cache(maxsize=1)
+def _version() -> str:
+    from holostring.provenance import package_version
+
+    return package_version()
+
+
 def _gl_nodes(z_end: float, m: int) -> tuple[np.ndarray, np.ndarray]:
     x, w = gauss_legendre(m)
     return 0.5 * z_end * (x + 1.0), 0.5 * z_end * w
@@ -408,6 +416,7 @@ def _assemble(background: Any, out: dict[str, Any], prob: _Problem, states: int,
             "domain": [0.0, z_end],
             "channel": ch.to_dict(),
         },
+        version=_version(),
     )
     return SpectrumResult(
         channel=ch.name,
