@@ -34,6 +34,7 @@ import math
 import warnings
 from collections.abc import Callable
 from dataclasses import dataclass
+from functools import lru_cache
 from typing import Any
 
 import numpy as np
@@ -123,17 +124,37 @@ def action_difference(family: ThermalFamily) -> ActionDifference:
     """
     th, bb = family.thermal, family.black_brane
     mt, mb = th.metric(Frame.EINSTEIN), bb.metric(Frame.EINSTEIN)
-    L_th = bulk_density(mt["G_tt"], mt["G_xx"], mt["G_zz"], th.dilaton)
-    L_bb = bulk_density(mb["G_tt"], mb["G_xx"], mb["G_zz"], bb.dilaton)
-    X_th = boundary_density(mt["G_tt"], mt["G_xx"], mt["G_zz"], th.dilaton)
-    X_bb = boundary_density(mb["G_tt"], mb["G_xx"], mb["G_zz"], bb.dilaton)
-    ratio = sp.simplify(sp.sqrt(sp.simplify(mb["G_tt"] / mt["G_tt"])))
+    pieces = _symbolic_pieces(
+        (mt["G_tt"], mt["G_xx"], mt["G_zz"], th.dilaton),
+        (mb["G_tt"], mb["G_xx"], mb["G_zz"], bb.dilaton),
+    )
+    L_th, dL, constant, residuals = pieces
     known = set(bb.symbols.values()) | {Z}
-    for expr in (L_th, L_bb, X_th, X_bb):
+    for expr in (L_th, dL, constant):
         extra = expr.free_symbols - known
         if extra:
             raise NotApplicableError(
                 f"thermal partner uses parameters the black brane lacks: {sorted(map(str, extra))}")
+    delta = None if dL == 0 else bb.raw_function(dL)
+    at_values = bb.substitutions()
+    on_shell = all(sp.simplify(r.subs(at_values)) == 0 for r in residuals)
+    return ActionDifference(family, delta, bb.raw_function(L_th), bb.raw_function(constant),
+                            bool(on_shell))
+
+
+@lru_cache(maxsize=64)
+def _symbolic_pieces(
+    thermal: tuple[sp.Expr, ...], black: tuple[sp.Expr, ...]
+) -> tuple[sp.Expr, sp.Expr, sp.Expr, tuple[sp.Expr, sp.Expr]]:
+    """Symbolic L_thermal, L_bb - L_thermal, the boundary constant and on-shell residuals.
+
+    Cached on the metric expressions, so parameter changes reuse the symbolic work.
+    """
+    L_th = bulk_density(*thermal)
+    L_bb = bulk_density(*black)
+    X_th = boundary_density(*thermal)
+    X_bb = boundary_density(*black)
+    ratio = sp.simplify(sp.sqrt(sp.simplify(black[0] / thermal[0])))
     try:
         m = sp.limit(sp.simplify((1 - ratio) / Z**4), Z, 0, "+")
         ell = sp.limit(sp.simplify(L_th * Z**5), Z, 0, "+")
@@ -146,15 +167,13 @@ def action_difference(family: ThermalFamily) -> ActionDifference:
                 f"the regularised action difference diverges ({name} limit at z -> 0 is {val}); "
                 "the blackening must approach 1 as 1 - O(z^4) on an asymptotically AdS5 background")
     dL = sp.simplify(L_bb - L_th)
-    delta = None if dL == 0 else bb.raw_function(dL)
-    constant = bb.raw_function(sp.simplify(m * ell / 4 + 2 * dk))
-    # on shell: R = -20 on both (L = -8 sqrt(g) e^{-Phi}) and the metrics are Einstein-frame AdS5
-    at_values = bb.substitutions()
-    on_shell = all(
-        sp.simplify((L - (-8) * sp.exp(-d) * s).subs(at_values)) == 0
-        for L, d, s in ((L_th, th.dilaton, _sqrtg(mt)), (L_bb, bb.dilaton, _sqrtg(mb)))
+    constant = sp.simplify(m * ell / 4 + 2 * dk)
+    # on shell: R = -20 (L = -8 sqrt(g) e^{-Phi}) on both geometries
+    residuals = tuple(
+        sp.simplify(L + 8 * sp.exp(-c[3]) * _sqrtg({"G_tt": c[0], "G_xx": c[1], "G_zz": c[2]}))
+        for L, c in ((L_th, thermal), (L_bb, black))
     )
-    return ActionDifference(family, delta, bb.raw_function(L_th), constant, bool(on_shell))
+    return L_th, dL, constant, residuals  # type: ignore[return-value]
 
 
 def _sqrtg(m: dict[str, sp.Expr]) -> sp.Expr:

@@ -174,9 +174,15 @@ def test_diverging_blackening_is_refused(tmp_path):
         compute_transition(load_background(path))
 
 
-def test_solitons_and_infinite_actions_are_refused():
+def test_solitons_are_refused():
     with pytest.raises(NotApplicableError, match="soliton"):
         compute_transition(load_background("ads-soliton"))
+
+
+@pytest.mark.slow
+def test_infinite_thermal_action_is_refused():
+    # the demo throat's warp is not AdS5 and grows like exp(s z^2/2): the off-shell action
+    # density e^-Phi sqrt(g)(R + 12) grows in the IR, so no finite comparison exists
     with pytest.raises(NotApplicableError, match="does not converge"):
         compute_transition(load_background("metrics/ember-throat.toml"))
 
