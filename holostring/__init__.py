@@ -34,6 +34,13 @@ _EXPORTS: dict[str, str] = {
     "string_profile": "holostring.strings",
     "solve_spectrum": "holostring.spectra",
     "SpectrumResult": "holostring.spectra",
+    "fit_regge": "holostring.spectra",
+    "mass_squared_gradient": "holostring.spectra",
+    "compute_transition": "holostring.thermo",
+    "compute_screening": "holostring.thermo",
+    "calibrate": "holostring.fit.calibrate",
+    "load_targets": "holostring.fit.targets",
+    "analyze": "holostring.workflow",
 }
 
 __all__ = ["__version__", *sorted(_EXPORTS)]

@@ -3,9 +3,11 @@
 from __future__ import annotations
 
 from dataclasses import asdict, dataclass, field
+from functools import cache
 from typing import Any
 
 
+@cache
 def package_version() -> str:
     """Return the installed holostring version (``0+unknown`` when run from a bare source tree)."""
     from importlib.metadata import PackageNotFoundError, version
