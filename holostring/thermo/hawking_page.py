@@ -43,7 +43,7 @@ import sympy as sp
 from holostring.background.formula import Z
 from holostring.background.frames import Frame
 from holostring.background.model import Background
-from holostring.errors import ConvergenceError, NotApplicableError
+from holostring.errors import ConvergenceError, InputError, NotApplicableError
 from holostring.provenance import Provenance
 from holostring.thermo.action import boundary_density, bulk_density
 from holostring.thermo.partners import ThermalFamily, thermal_family
@@ -285,10 +285,21 @@ def compute_transition(
             ts = fam.temperature(np.array([4 * scale, 0.25 * scale]))
             t_range = (float(min(ts)), float(max(ts)))
     temps = np.linspace(t_range[0], t_range[1], points)
-    hs = np.array([fam.horizon_for(t) for t in temps])
-    curve = np.empty_like(temps)
-    cerr = np.empty_like(temps)
+    hs = np.full_like(temps, math.nan)
+    for i, t in enumerate(temps):
+        try:
+            hs[i] = fam.horizon_for(t)
+        except InputError:
+            pass
+    if np.any(np.isnan(hs)):
+        gone = temps[np.isnan(hs)]
+        messages.append(f"no black brane exists at {gone.size} curve temperatures "
+                        f"({gone.min():.4g} to {gone.max():.4g}): T(z_h) has a minimum")
+    curve = np.full_like(temps, math.nan)
+    cerr = np.full_like(temps, math.nan)
     for i, zh in enumerate(hs):
+        if not math.isfinite(zh):
+            continue
         try:
             curve[i], cerr[i] = act.free_energy(zh)
         except ConvergenceError as err:

@@ -230,3 +230,31 @@ at = "z0"
         np.testing.assert_allclose(bb.function(name)(z), ref_bb.function(name)(z), rtol=1e-14)
     res = compute_transition(fam)
     assert res.critical_temperature * 1.4 == pytest.approx(ref.HARD_WALL_TC_Z0[0], rel=1e-10)
+
+
+def test_user_blackening_not_ads_temperature_and_inversion(tmp_path):
+    # f = (1 - (z/zh)^4)(1 + a z^4): T = |f'(zh)|/(4 pi) = (1 + a zh^4)/(pi zh) (horizon regularity)
+    text = USER_BLACKENING.replace('"1 - (z/zh)^4"', '"(1 - (z/zh)^4)*(1 + a*z^4)"').replace(
+        "[metric]", '[parameters.a]\ndefault = 0.2\nrange = "[0, 1]"\n\n[metric]')
+    fam = thermal_family(load_background(_write(tmp_path, "fa", text)))
+    assert not fam.is_ads_factor
+    zh = np.array([0.3, 0.8, 1.2])
+    np.testing.assert_allclose(fam.temperature(zh), (1 + 0.2 * zh**4) / (np.pi * zh), rtol=1e-13)
+    T = float(fam.temperature(0.8))
+    assert fam.horizon_for(T) == pytest.approx(0.8, rel=1e-12)
+    res = compute_transition(fam)
+    assert res.critical_temperature is not None and res.on_shell is False
+
+
+def test_results_are_frozen_and_plain():
+    import dataclasses
+    import json
+
+    from holostring.report.serialize import to_jsonable
+
+    res = compute_transition(load_background("hard-wall"), points=5)
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        res.critical_temperature = 1.0  # type: ignore[misc]
+    d = json.loads(json.dumps(to_jsonable(res.to_dict())))
+    assert d["critical_temperature"] == res.critical_temperature
+    assert d["provenance"]["background"] == "hard-wall"
