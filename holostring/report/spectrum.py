@@ -80,8 +80,7 @@ def print_summary(result: Any, fit: Any | None = None) -> None:
         out.print(f"Regge fit m_n^2 = a n + b (n = {fit.n[0]}..{fit.n[-1]}): "
                   f"a = {fit.slope:.10g} ± {fit.slope_error:.1e}, "
                   f"b = {fit.intercept:.10g} ± {fit.intercept_error:.1e}"
-                  + ("  (errors scaled by chi2/dof: the spectrum is not linear)"
-                     if fit.scaled else ""))
+                  + (_scaling_note(fit) if fit.scaled else ""))
     status = "converged" if result.converged else "NOT CONVERGED"
     out.print(f"{status}: {result.message}")
     out.print(f"[dim]{limits_statement()}[/dim]")
@@ -177,7 +176,7 @@ def plot_regge(result: Any, fit: Any | None = None, ax: Any = None) -> Any:
         ax.plot(nn, fit.slope * nn + fit.intercept, color=COLORS[1], lw=1.2,
                 label=f"fit: a = {fit.slope:.6g} ± {fit.slope_error:.1e}, "
                       f"b = {fit.intercept:.6g} ± {fit.intercept_error:.1e}"
-                      + ("\n(errors scaled by $\\chi^2$/dof: not linear)" if fit.scaled else ""))
+                      + ("\n" + _scaling_note(fit).strip() if fit.scaled else ""))
     _, m2u, _ = _units(result)
     ax.set_xlabel("n (radial excitation)")
     ax.set_ylabel(f"$m_n^2$ [{m2u}]")
@@ -221,3 +220,11 @@ def write_outputs(out: str | Path, result: Any, fit: Any | None = None) -> list[
         paths.append(write_figure(fig, d / name))
         plt.close(fig)
     return paths
+
+
+def _scaling_note(fit: Any) -> str:
+    """Why the Regge errors were scaled, in words that match the size of the residuals."""
+    rel = float(np.max(np.abs(fit.residuals)) / max(abs(fit.intercept) + abs(fit.slope) * fit.n[-1], 1e-300))
+    if rel < 1e-9:
+        return f"  (errors scaled by chi2/dof = {fit.chi2 / fit.dof:.2g}; residuals {rel:.0e} relative: linear to solver precision)"
+    return f"  (errors scaled by chi2/dof = {fit.chi2 / fit.dof:.2g}: the spectrum is not exactly linear)"
