@@ -71,26 +71,26 @@ def scan(
     from holostring.scan import run_scan
 
     state = {"done": 0, "total": 0}
-    with _progress_bar() as bar:
+    try:
+        with _progress_bar() as bar:
 
-        def progress(done: int, total: int) -> None:
-            state.update(done=done, total=total)
-            bar(done, total)
+            def progress(done: int, total: int) -> None:
+                state.update(done=done, total=total)
+                bar(done, total)
 
-        try:
             result = run_scan(
                 bg, vary, observe, samples=random, seed=seed, workers=workers, scheduler=scheduler,
                 progress=progress, store=store, retry_failed=retry_failed,
             )  # fmt: skip
-        except KeyboardInterrupt:
-            kept = (
-                f"{state['done']} of {state['total']} points are saved in {store}; run the same command "
-                "again to resume"
-                if store is not None
-                else "nothing was saved (use --out DIR to keep finished points)"
-            )
-            typer.echo(f"interrupted: {kept}", err=True)
-            raise typer.Exit(code=130) from None
+    except KeyboardInterrupt:
+        kept = (
+            f"{state['done']} of {state['total']} points are saved in {store}; run the same command "
+            "again to resume"
+            if store is not None
+            else "nothing was saved (use --out DIR to keep finished points)"
+        )
+        typer.echo(f"interrupted: {kept}", err=True)
+        raise typer.Exit(code=130) from None
 
     files: list[Path] = []
     if out is not None:

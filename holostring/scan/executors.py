@@ -38,17 +38,15 @@ def process_pool(workers: int) -> ProcessPoolExecutor:
 
 
 def stop_pool(pool: ProcessPoolExecutor, *, interrupted: bool) -> None:
-    """Shut a pool down; after an interruption, end its worker processes at once."""
+    """Shut a pool down; after an interruption, end its worker processes first (they hold no results)."""
     if interrupted:
-        procs = list(getattr(pool, "_processes", {}).values() or [])
-        pool.shutdown(wait=False, cancel_futures=True)
+        procs = list((getattr(pool, "_processes", None) or {}).values())
         for p in procs:
             if p.is_alive():
                 p.terminate()
         for p in procs:
             p.join(timeout=5)
-    else:
-        pool.shutdown(wait=True, cancel_futures=True)
+    pool.shutdown(wait=True, cancel_futures=True)
 
 
 @contextmanager

@@ -333,6 +333,11 @@ def _execute(
     else:
         from holostring.scan.executors import process_pool
 
+        if todo:  # the first point here warms the background; forked workers inherit it
+            i, pt = todo[0]
+            finished([evaluate_point(bg, names, specs, i, pt)])
+            todo = todo[1:]
+            _WORKER_BACKGROUNDS[token] = bg
         executor = pool = process_pool(workers)
         label, slots = f"processes({workers})", 2 * workers
     size = chunk_size or max(1, min(25, math.ceil(len(todo) / (slots * 2))))

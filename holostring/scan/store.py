@@ -43,12 +43,18 @@ class ScanStore:
         self.header = {"format": FORMAT, "version": VERSION, **header}
         self.rows: dict[tuple[float, ...], ScanRow] = {}
         self._fh: IO[str] | None = None
-        if self.path.exists() and self.path.stat().st_size > 0:
-            self._load()
-        else:
-            self.path.parent.mkdir(parents=True, exist_ok=True)
-            with open(self.path, "w", encoding="utf-8") as fh:
-                fh.write(json.dumps(self.header) + "\n")
+        self.path.parent.mkdir(parents=True, exist_ok=True)
+        self._fh = open(self.path, "a", encoding="utf-8")  # held until close()
+        try:
+            _lock(self._fh, self.path)
+            if self.path.stat().st_size > 0:
+                self._load()
+            else:
+                self._fh.write(json.dumps(self.header) + "\n")
+                self._fh.flush()
+        except BaseException:
+            self.close()
+            raise
 
     def _load(self) -> None:
         data = self.path.read_bytes()
@@ -84,7 +90,7 @@ class ScanStore:
         if not rows:
             return
         if self._fh is None:
-            self._fh = open(self.path, "a", encoding="utf-8")
+            raise ValueError("the scan store is closed")
         self._fh.write("".join(json.dumps(r.to_dict()) + "\n" for r in rows))
         self._fh.flush()
         os.fsync(self._fh.fileno())
@@ -102,6 +108,18 @@ class ScanStore:
 
     def __exit__(self, *exc: object) -> None:
         self.close()
+
+
+def _lock(fh: IO[str], path: Path) -> None:
+    """Hold an exclusive lock on the store, so two runs never write the same file."""
+    try:
+        import fcntl
+    except ImportError:  # pragma: no cover - no advisory locks on this platform
+        return
+    try:
+        fcntl.flock(fh.fileno(), fcntl.LOCK_EX | fcntl.LOCK_NB)
+    except OSError:
+        raise InputError("--out", f"another scan is writing to '{path}' right now") from None
 
 
 def _plain(x: Any) -> Any:

@@ -242,3 +242,12 @@ def test_bad_input_is_refused_before_running(soft_wall, kwargs, field):
     with pytest.raises(InputError) as info:
         run_scan(soft_wall, **kwargs)
     assert info.value.field == field
+
+
+def test_two_runs_never_write_the_same_store(tmp_path):
+    path = tmp_path / "s.jsonl"
+    header = {"background": "soft-wall", "structure": "x", "parameters": {}, "observables": [], "plan": {}}
+    with ScanStore(path, header), pytest.raises(InputError, match="another scan is writing"):
+        ScanStore(path, header)
+    with ScanStore(path, header) as again:  # free again once the first is closed
+        assert again.rows == {}
