@@ -35,7 +35,7 @@ def scan(
     scheduler: str = typer.Option(
         None,
         "--scheduler",
-        help="Run on a Dask cluster at this address, e.g. tcp://host:8786 (needs holostring[dask]).",
+        help="Run on a Dask cluster at this address, e.g. tcp://host:8786 (needs the optional extra holostring\\[dask]).",
     ),
     out: Path = typer.Option(
         None,
@@ -50,8 +50,7 @@ def scan(
 ) -> None:
     """Evaluate observables over a grid (or random sample) of parameter values.
 
-    Points where a parameter is out of range or an observable cannot be computed are recorded as
-    failed with the reason; the scan goes on.
+    Points where a parameter is out of range or an observable cannot be computed are recorded as failed with the reason; the scan goes on.
     """
     from holostring.cli.common import parse_params, resolve_background
     from holostring.errors import InputError

@@ -53,6 +53,9 @@ def stop_pool(pool: ProcessPoolExecutor, *, interrupted: bool) -> None:
 def dask_executor(address: str, timeout: float = 10.0) -> Iterator[Any]:
     """Connect to a running Dask scheduler and yield its ``concurrent.futures`` executor.
 
+    Every Dask worker must have the same holostring version installed: tasks name the worker
+    function by module and carry the background (formulas and values), not compiled code.
+
     Parameters
     ----------
     address
