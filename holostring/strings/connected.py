@@ -224,11 +224,24 @@ class ConnectedFamily:
         p = np.atleast_1d(np.asarray(p, dtype=float))
         zs, ys = self.zstar(p)
         a = self.stretch(zs, ys)
-        t, w = quad.stretched_rule(a, m)
-        Fstar, L_int, W_int = self.integrands(zs, ys, t)
-        with np.errstate(all="ignore"):
-            L = 2.0 * np.sum(w * L_int, axis=1)
-            W = 2.0 * (np.sum(w * W_int, axis=1) + self.uv.P(zs))
+        L = np.empty_like(zs)
+        W = np.empty_like(zs)
+        Fstar = np.empty_like(zs)
+        plain = a >= quad.PLAIN_ABOVE
+        for rows in (plain, ~plain):
+            if not np.any(rows):
+                continue
+            if rows is plain:  # smooth integrand in t: a plain Gauss rule with fewer points
+                x, wx = quad.gauss_legendre(3 * m + 1)
+                t = np.broadcast_to(x, (int(rows.sum()), x.size))
+                w = np.broadcast_to(wx, t.shape)
+            else:
+                t, w = quad.stretched_rule(a[rows], m)
+            Fs, L_int, W_int = self.integrands(zs[rows], ys[rows], t)
+            Fstar[rows] = Fs
+            with np.errstate(all="ignore"):
+                L[rows] = 2.0 * np.sum(w * L_int, axis=1)
+                W[rows] = 2.0 * (np.sum(w * W_int, axis=1) + self.uv.P(zs[rows]))
         # the horizon itself: F* = 0, the string is the straight pair (L = 0)
         if self.end == EndKind.HORIZON:
             L = np.where((Fstar <= 0) | ~np.isfinite(L), 0.0, L)
