@@ -382,23 +382,26 @@ def _exact_minimum(bg: Background, F: sp.Expr, z_numeric: float) -> tuple[sp.Exp
 
 # --------------------------------------------------------------------------- small L
 def _slope(bg: Background, F: sp.Expr, H: sp.Expr, notes: list[str]) -> tuple[float | None, str | None]:
-    coeffs = []
     memo = bg._compiled.memo
-    for name, expr in (("F", F), ("H", H)):
-        if f"series:{name}" not in memo:
-            memo[f"series:{name}"] = _second_order(expr)
-        a = memo[f"series:{name}"]
-        if a is None:
-            notes.append(f"small-L slope not available: z^2 {name} is not 1 + a z^2 + O(z^3) at the boundary")
-            return None, None
-        coeffs.append(a)
-    a_F, a_H = coeffs
-    one_plus = SLOPE_FACTOR
-    b = sp.Symbol("g") * (a_F * (one_plus - 2 * _I2_OVER_I0) + 2 * a_H * _I2_OVER_I0)
-    b = sp.simplify(b)
-    subs = dict(bg.substitutions())
-    subs[sp.Symbol("g")] = bg.g
-    return float(sp.N(b.subs(subs))), str(b)
+    if "slope" not in memo:
+        coeffs = []
+        for name, expr in (("F", F), ("H", H)):
+            a = _second_order(expr)
+            if a is None:
+                memo["slope"] = (None, name)
+                break
+            coeffs.append(a)
+        else:
+            a_F, a_H = coeffs
+            g = bg.parameter("g").symbol
+            b = sp.simplify(g * (a_F * (SLOPE_FACTOR - 2 * _I2_OVER_I0) + 2 * a_H * _I2_OVER_I0))
+            fn = sp.lambdify([p.symbol for p in bg.parameters], b, modules=["scipy", "numpy"])
+            memo["slope"] = (b, fn)
+    b, extra = memo["slope"]
+    if b is None:
+        notes.append(f"small-L slope not available: z^2 {extra} is not 1 + a z^2 + O(z^3) at the boundary")
+        return None, None
+    return float(extra(*bg.values)), str(b)
 
 
 def _second_order(expr: sp.Expr) -> sp.Expr | None:
