@@ -200,7 +200,7 @@ th,td{border:1px solid #d0d7de;padding:.25rem .6rem;text-align:left;vertical-ali
 th{background:#f3f6f9}
 td.num{font-family:ui-monospace,Menlo,Consolas,monospace;text-align:right}
 figure{margin:1rem 0 1.6rem}
-figure img{max-width:100%;border:1px solid #e5e9ee}
+figure img{max-width:min(100%,46rem);border:1px solid #e5e9ee}
 figcaption{font-size:.85rem;color:#57606a}
 .limits{background:#fff8e5;border-left:4px solid #d68910;padding:.6rem 1rem;font-size:.9rem}
 .intro{color:#333}
