@@ -1,18 +1,25 @@
-"""Array-only spectral building blocks: Chebyshev points, differentiation, interpolation, quadrature.
+"""Array-only spectral building blocks: Gauss-Jacobi nodes, differentiation, interpolation, quadrature.
 
 Nothing here knows about backgrounds; everything takes and returns numpy arrays, so each
 function is tested against closed forms alone.
 
-The collocation used by :mod:`holostring.spectra.solve` takes the Chebyshev points of the first
-kind (all interior, so coefficient functions are never evaluated at a singular end point),
-optionally with the right end point added for a boundary condition, and builds differentiation
-matrices from barycentric weights. The resulting standard eigenvalue problem is solved by LAPACK
-with balancing, which keeps rounding errors near 1e-13 up to a few hundred points.
+The solver in :mod:`holostring.spectra.solve` uses a nodal basis: polynomials of degree m - 1
+given by their values at the m Gauss-Jacobi points of [a, b] (roots of P_m^(alpha, beta); all
+interior, so coefficient functions are never evaluated at an end point). The same points with
+their Gauss weights serve as the quadrature of the weak form, which makes the mass matrix
+diagonal. The Jacobi exponents are chosen so that the weight (b - z)^alpha (z - a)^beta carries
+the leading power of the integrands at the ends; what remains is smooth, and the quadrature keeps
+spectral accuracy.
+
+Everything that depends only on (m, alpha, beta) is computed once on [-1, 1] and cached; an
+interval only rescales it.
 
 References
 ----------
-L. N. Trefethen, *Spectral Methods in MATLAB*, SIAM 2000, ch. 6.
+L. N. Trefethen, *Spectral Methods in MATLAB*, SIAM 2000, ch. 6 (differentiation matrices).
 J.-P. Berrut & L. N. Trefethen, SIAM Review 46 (2004) 501 (barycentric interpolation).
+H. Wang, D. Huybrechs, S. Vandewalle, Math. Comp. 83 (2014) 2893, arXiv:1207.4174
+(barycentric weights of Gauss-Jacobi points from the quadrature weights).
 """
 
 from __future__ import annotations
@@ -23,47 +30,13 @@ from dataclasses import dataclass
 import numpy as np
 
 
-def first_kind_points(m: int) -> np.ndarray:
-    """Chebyshev points of the first kind (roots of T_m), ascending, all inside (-1, 1)."""
-    if m < 1:
-        raise ValueError("m must be at least 1")
-    return -np.cos(np.pi * (np.arange(m) + 0.5) / m)
-
-
-def first_kind_weights(m: int, right_end: bool = False) -> np.ndarray:
-    """Barycentric weights of the ascending first-kind points, optionally with x = 1 appended.
-
-    With l(x) = prod_k (x - x_k) = T_m(x) / 2^(m-1), the weights are 1 / l'(x_j)
-    = 2^(m-1) sin(t_j) / (m sin(m t_j)) for x_j = cos(t_j); appending x = 1 divides them by
-    (x_j - 1) and adds the weight 1 / l(1) = 2^(m-1). The common factor 2^(m-1) is dropped.
-    """
-    t = first_kind_angles(m)  # x_j = cos(t_j), ascending
-    w = np.sin(t) / (m * np.sin(m * t))
-    if not right_end:
-        return w
-    one_minus_x = 2.0 * np.sin(0.5 * t) ** 2
-    return np.append(-w / one_minus_x, 1.0)
-
-
-def first_kind_angles(m: int, right_end: bool = False) -> np.ndarray:
-    """Angles t_j with x_j = cos(t_j) of the ascending first-kind points (t = 0 appended)."""
-    t = np.pi - np.pi * (np.arange(m) + 0.5) / m
-    return np.append(t, 0.0) if right_end else t
-
-
-def angle_differences(t: np.ndarray) -> np.ndarray:
-    """x_i - x_j for x = cos(t), as -2 sin((t_i + t_j)/2) sin((t_i - t_j)/2), free of cancellation."""
-    return -2.0 * np.sin(0.5 * (t[:, None] + t[None, :])) * np.sin(0.5 * (t[:, None] - t[None, :]))
-
-
-def differentiation_matrix(x: np.ndarray, w: np.ndarray, dx: np.ndarray | None = None) -> np.ndarray:
+def differentiation_matrix(x: np.ndarray, w: np.ndarray) -> np.ndarray:
     """First-derivative matrix of the interpolant on nodes ``x`` with barycentric weights ``w``.
 
     Off-diagonal (w_j / w_i) / (x_i - x_j); the diagonal by the negative-sum trick, which keeps
-    D @ 1 = 0 to rounding (Berrut & Trefethen 2004, section 9). ``dx`` may give the node
-    differences computed without cancellation (see :func:`angle_differences`).
+    D @ 1 = 0 to rounding (Berrut & Trefethen 2004, section 9).
     """
-    dx = (x[:, None] - x[None, :]) if dx is None else dx.copy()
+    dx = x[:, None] - x[None, :]
     np.fill_diagonal(dx, 1.0)
     D = (w[None, :] / w[:, None]) / dx
     np.fill_diagonal(D, 0.0)
@@ -102,6 +75,60 @@ def gauss_legendre(m: int) -> tuple[np.ndarray, np.ndarray]:
 
 
 @dataclass(frozen=True)
+class JacobiRule:
+    """Gauss-Jacobi points on [-1, 1] with everything the nodal basis needs (read-only arrays).
+
+    Attributes
+    ----------
+    x
+        The m roots of P_m^(alpha, beta), ascending.
+    log_weights
+        log of the plain quadrature weights: int f dx ~ sum exp(log_weights) f(x) for f
+        = (1 - x)^alpha (1 + x)^beta g with g smooth (the Gauss weights divided by the weight
+        function at the nodes; kept as logs because they span many decades).
+    bary
+        Barycentric weights (-1)^j sqrt((1 - x_j^2) w_j) (Wang, Huybrechs & Vandewalle 2014).
+    D
+        First-derivative matrix on the nodes.
+    """
+
+    x: np.ndarray
+    log_weights: np.ndarray
+    bary: np.ndarray
+    D: np.ndarray
+
+
+@functools.lru_cache(maxsize=64)
+def jacobi_rule(m: int, alpha: float, beta: float) -> JacobiRule:
+    """Gauss-Jacobi rule of m points for the weight (1 - x)^alpha (1 + x)^beta, cached.
+
+    Parameters
+    ----------
+    m
+        Number of points (at least 2).
+    alpha, beta
+        Exponents, each > -1.
+
+    Returns
+    -------
+    JacobiRule
+    """
+    from scipy.special import roots_jacobi
+
+    if m < 2:
+        raise ValueError("m must be at least 2")
+    if not (alpha > -1 and beta > -1):
+        raise ValueError("Jacobi exponents must exceed -1")
+    x, w = roots_jacobi(m, alpha, beta)
+    bary = (-1.0) ** np.arange(m) * np.sqrt((1.0 - x**2) * w)
+    log_w = np.log(w) - alpha * np.log1p(-x) - beta * np.log1p(x)
+    D = differentiation_matrix(x, bary)
+    for arr in (x, log_w, bary, D):
+        arr.setflags(write=False)
+    return JacobiRule(x, log_w, bary, D)
+
+
+@dataclass(frozen=True)
 class LinearMap:
     """The affine map x in [-1, 1] -> z in [a, b]."""
 
@@ -123,54 +150,62 @@ class LinearMap:
 
 
 @dataclass(frozen=True)
-class Collocation:
-    """Chebyshev collocation on the first-kind points of an interval, optionally with its right end.
+class NodalBasis:
+    """Polynomials on the Gauss-Jacobi points of [a, b], optionally times (b - z).
 
-    The unknowns are the values at ``z`` (m interior first-kind points, plus b when
-    ``right_end``); the equation is imposed at the interior points only, so coefficient
-    functions are never evaluated at an end point. A regular singular left end needs no row: the
-    polynomial space selects the regular solution. A condition at the right end eliminates the
-    value there.
+    A function is stored by its values at the nodes ``z``. With ``right_zero`` the functions are
+    u(z) = (b - z) v(z), v a polynomial of degree m - 1, so that u(b) = 0 holds exactly; the
+    stored values are still those of u.
 
     Attributes
     ----------
     z
-        Nodes mapped to [a, b], ascending.
-    weights
+        Nodes mapped to [a, b], ascending, all interior.
+    log_weights
+        log of plain quadrature weights on [a, b] (see :class:`JacobiRule`).
+    bary
         Barycentric weights of the nodes.
-    D1, D2
-        First and second z-derivative matrices on the nodes.
+    D
+        First z-derivative matrix of the polynomial interpolant v on the nodes.
     """
 
     z: np.ndarray
-    weights: np.ndarray
-    D1: np.ndarray
-    D2: np.ndarray
+    log_weights: np.ndarray
+    bary: np.ndarray
+    D: np.ndarray
     domain: LinearMap
-    right_end: bool
+    right_zero: bool = False
 
     @classmethod
-    def build(cls, m: int, a: float, b: float, right_end: bool = False) -> Collocation:
-        """Nodes and matrices for m interior points on [a, b] (and the point b if asked)."""
+    def build(cls, m: int, a: float, b: float, alpha: float = 0.0, beta: float = 0.0,
+              right_zero: bool = False) -> NodalBasis:
+        """Nodes and matrices for m points on [a, b], weight (b - z)^alpha (z - a)^beta."""
+        rule = jacobi_rule(int(m), float(alpha), float(beta))
         dom = LinearMap(a, b)
-        t = first_kind_angles(m, right_end)
-        x = np.cos(t)
-        w = first_kind_weights(m, right_end)
-        D = differentiation_matrix(x, w, angle_differences(t)) / dom.scale
-        z = dom.a + dom.scale * 2.0 * np.cos(0.5 * t) ** 2  # 1 + x without cancellation
-        return cls(z, w, D, D @ D, dom, right_end)
+        h = dom.scale
+        return cls(dom.to_z(rule.x), rule.log_weights + np.log(h), rule.bary, rule.D / h, dom,
+                   right_zero)
 
     @property
-    def interior(self) -> int:
-        """Number of interior nodes m."""
-        return self.z.size - (1 if self.right_end else 0)
+    def size(self) -> int:
+        """Number of nodes m."""
+        return int(self.z.size)
+
+    def _factor(self, z: np.ndarray) -> np.ndarray:
+        return self.domain.b - z if self.right_zero else np.ones_like(z)
 
     def evaluate(self, values: np.ndarray, z: np.ndarray) -> np.ndarray:
-        """Evaluate interpolants (node values in the last axis) at physical points ``z``."""
-        x = self.domain.to_x(np.asarray(z, dtype=float))
-        E = interpolation_matrix(self.domain.to_x(self.z), self.weights, x)
-        return values @ E.T
+        """Evaluate functions (node values in the last axis) at physical points ``z``."""
+        z = np.asarray(z, dtype=float).reshape(-1)
+        E = interpolation_matrix(self.domain.to_x(self.z), self.bary, self.domain.to_x(z))
+        return (values / self._factor(self.z)) @ E.T * self._factor(z)
 
     def derivative(self, values: np.ndarray, z: np.ndarray) -> np.ndarray:
-        """First z-derivative of interpolants at physical points ``z``."""
-        return self.evaluate(values @ self.D1.T, z)
+        """First z-derivative of the functions at physical points ``z``."""
+        z = np.asarray(z, dtype=float).reshape(-1)
+        v = values / self._factor(self.z)
+        E = interpolation_matrix(self.domain.to_x(self.z), self.bary, self.domain.to_x(z))
+        dv = (v @ self.D.T) @ E.T
+        if not self.right_zero:
+            return dv
+        return dv * (self.domain.b - z) - v @ E.T

@@ -6,11 +6,11 @@ scalar in AdS5). The IR end decides the rest:
 
 - ``wall`` (hard wall at z0): Dirichlet phi(z0) = 0 or Neumann phi'(z0) = 0, on the field phi,
   chosen by the user (Dirichlet by default); Boschi-Filho & Braga, hep-th/0209080;
-- ``cap`` (a circle shrinks smoothly, AdS soliton): regularity at the tip, imposed by the
-  collocation itself (the second solution has a logarithm); Csaki-Ooguri-Oz-Terning,
+- ``cap`` (a circle shrinks smoothly, AdS soliton): regularity at the tip, a natural
+  condition of the weak form (the second solution has a logarithm and infinite energy); Csaki-Ooguri-Oz-Terning,
   hep-th/9806021;
 - ``infinity``: normalisable at infinity (the Schrodinger function decays); the domain is cut
-  where the highest wanted state has decayed by about e^-30 (WKB), with psi = 0 there;
+  where the highest wanted state has decayed by about e^-22 (WKB), with psi = 0 there;
 - ``horizon``: refused. Normal modes need a confining IR end; a horizon gives quasinormal modes.
 """
 

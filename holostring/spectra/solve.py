@@ -1,22 +1,36 @@
 """The spectral solver: masses, modes and U(z) of a channel on a background.
 
 Method. The field is written phi = s(z) u(z); s carries the UV behaviour z^Delta (and, on a half
-line, the WKB-like factor z^kappa (P W)^{-1/4} so that u decays like the Schrodinger function).
-The smooth u is expanded in Chebyshev polynomials of degree N on [0, z_end] (z_end: the wall, the
-tip of a cap, or a cut far in the classically forbidden region of an infinite IR end) and the
-equation -a u'' - b u' + c u = m^2 u is imposed at first-kind Chebyshev points, which are all
-interior, so the regular singular ends z = 0 and a cap are never evaluated: the polynomial space
-itself selects the regular solution there. A wall condition, or psi = 0 at the cut, is one more
-row. The generalised eigenproblem is solved with LAPACK (scipy.linalg.eig) at degrees N and 2N;
-the difference is the error estimate, eigenvalues without a partner at the other resolution (or
-with an imaginary part) are discarded as spurious, and N is doubled until the wanted states agree
-to the tolerance or the maximum degree is reached.
+line, the WKB-like factor z^kappa (P W)^{-1/4} so that u decays like the Schrodinger function),
+and at a Dirichlet end one more factor (z_end - z). The problem -(P phi')' + Q phi = m^2 W phi
+is taken in its weak (Rayleigh-Ritz) form
+
+    int p u' v' dz + int rho c u v dz [+ p L_s u v at a Neumann wall] = m^2 int rho u v dz,
+
+with p = P s^2, rho = W s^2 and c the regular coefficient of the u equation (the 1/z^2 terms
+cancel by the indicial equation). u is a polynomial of degree m - 1 on [0, z_end] (z_end: the
+wall, the tip of a cap, or a cut far in the classically forbidden region of an infinite IR end)
+given by its values at the m Gauss-Jacobi points, whose weight (z_end - z)^alpha z^beta takes up
+the leading powers of p and rho at the ends; the same points are the quadrature. All nodes are
+interior, so the singular ends z = 0 and a cap are never evaluated; regularity there and a
+Neumann condition are natural conditions of the weak form, a Dirichlet end is built into s. The
+mass matrix is diagonal, so with K = sqrt(w p) D / sqrt(w rho) the problem is the symmetric
+standard one (K^T K + diag(c)) y = m^2 y. LAPACK's symmetric solver (scipy.linalg.eigh, lowest
+eigenpairs only) gives the eigenvectors; each eigenvalue is then recomputed as the Rayleigh
+quotient |K y|^2 + c.y^2 in that factored form, which removes the rounding error of forming
+K^T K (the error of a Rayleigh quotient is quadratic in that of the vector). This is done with m
+and 2m nodes; the difference is the error estimate, eigenvalues without a partner at the other
+resolution are discarded as spurious, and m is doubled until the wanted states agree to the
+tolerance or the maximum size is reached.
 
 References
 ----------
-T. A. Driscoll & N. Hale, IMA J. Numer. Anal. 36 (2016) 108 (rectangular collocation).
 J. P. Boyd, *Chebyshev and Fourier Spectral Methods*, 2nd ed., Dover 2001, ch. 7 (spurious
 eigenvalues, comparison of two resolutions).
+C. Canuto, M. Y. Hussaini, A. Quarteroni, T. A. Zang, *Spectral Methods: Fundamentals in Single
+Domains*, Springer 2006, sec. 2.3 and ch. 3 (Gauss-Jacobi quadrature, Galerkin with numerical
+integration).
+B. N. Parlett, *The Symmetric Eigenvalue Problem*, SIAM 1998, ch. 4 (Rayleigh quotient accuracy).
 """
 
 from __future__ import annotations
@@ -31,7 +45,7 @@ import numpy as np
 
 from holostring.errors import ConvergenceError, InputError, NotApplicableError
 from holostring.provenance import Provenance
-from holostring.spectra.bases import Collocation, gauss_legendre
+from holostring.spectra.bases import NodalBasis, gauss_legendre, interpolation_matrix
 from holostring.spectra.boundary import Boundaries, BoundaryKind, resolve_boundaries
 from holostring.spectra.channels import Channel, resolve_channel
 from holostring.spectra.coefficients import Compiled, compiled, uv_exponent
@@ -39,11 +53,21 @@ from holostring.spectra.results import SpectrumResult
 
 #: decay exponent int sqrt(U - m^2) d xi required at the cut of an infinite IR end
 DECAY_AT_CUT = 22.0
-#: largest polynomial degree tried
+#: largest number of nodes tried
 MAX_DEGREE = 768
 #: relative distance within which eigenvalues at two resolutions are partners
 PARTNER_TOL = 1e-5
 PLOT_POINTS = 600
+METHOD = "Gauss-Jacobi Galerkin (weak form, diagonal mass), m and 2m nodes"
+
+
+@dataclass
+class _Level:
+    """Lowest eigenpairs at one resolution: m^2 ascending and node values of u (columns)."""
+
+    lam: np.ndarray
+    u: np.ndarray
+    basis: NodalBasis
 
 
 @dataclass
@@ -57,7 +81,8 @@ class _Problem:
     z_end: float
     half: bool
     ir: BoundaryKind
-    cache: dict[int, Any] = field(default_factory=dict)
+    beta: float = 0.0
+    cache: dict[int, _Level] = field(default_factory=dict)
 
     # coefficient functions ------------------------------------------------------------
     def _call(self, fn: Any, z: np.ndarray) -> np.ndarray:
@@ -86,67 +111,93 @@ class _Problem:
     def log_P(self, z: np.ndarray) -> np.ndarray:
         return self._call(self.comp.log_P, z)
 
+    @property
+    def dirichlet(self) -> bool:
+        """u = 0 at z_end: a Dirichlet wall, or the cut of an infinite IR end."""
+        return self.ir in (BoundaryKind.DIRICHLET, BoundaryKind.DECAYING)
+
     # discretisation ---------------------------------------------------------------------
-    def eig(self, n: int) -> tuple[Any, ...]:
-        """Eigenvalues (ascending, real, finite) with n interior points, and the matrices."""
-        if n in self.cache:
-            return self.cache[n]
+    def level(self, m: int, k: int) -> _Level:
+        """The lowest min(k, m) eigenpairs with m nodes (cached per m)."""
+        hit = self.cache.get(m)
+        if hit is not None and hit.lam.size >= min(k, m):
+            return hit
         import scipy.linalg
 
-        end_row = self.ir is not BoundaryKind.REGULAR
-        col = Collocation.build(n, 0.0, self.z_end, right_end=end_row)
-        zi = col.z[:n]
-        a, b, c = self.coefficients(zi)
-        if not (np.all(np.isfinite(a)) and np.all(np.isfinite(b)) and np.all(np.isfinite(c))):
+        basis = NodalBasis.build(m, 0.0, self.z_end, alpha=1.0 if self.dirichlet else 0.0,
+                                 beta=self.beta, right_zero=self.dirichlet)
+        z = basis.z
+        _, b, c = self.coefficients(z)
+        log_s = self.log_s(z)
+        lp = self.log_P(z) + 2.0 * log_s
+        lr = self.log_W(z) + 2.0 * log_s
+        if self.dirichlet:  # s -> s (z_end - z): p, rho get d^2 and c gets b/d
+            d = self.z_end - z
+            lp = lp + 2.0 * np.log(d)
+            lr = lr + 2.0 * np.log(d)
+            c = c + b / d
+        with np.errstate(all="ignore"):
+            left = np.exp(0.5 * (basis.log_weights + lp))
+            right = np.exp(-0.5 * (basis.log_weights + lr))
+        if not (np.all(np.isfinite(left)) and np.all(np.isfinite(right)) and np.all(right > 0)
+                and np.all(np.isfinite(c))):
             raise NotApplicableError(
                 "the fluctuation equation has non-finite coefficients inside the domain "
                 f"(0, {self.z_end:g}); check the background's metric and dilaton"
             )
-        A = -a[:, None] * col.D2[:n] - b[:, None] * col.D1[:n]
-        A[:, :n] += np.diag(c)
-        end_map = None
-        if end_row:
-            if self.ir is BoundaryKind.NEUMANN:
-                # phi' = s (L_s u + u') = 0 at the wall: u_end = end_map @ u_interior
-                row = col.D1[-1].copy()
-                row[-1] += float(self.dlog_s(np.array([self.z_end]))[0])
-                end_map = -row[:n] / row[-1]
-                A = A[:, :n] + np.outer(A[:, n], end_map)
-            else:
-                A = A[:, :n]  # u = 0 at the wall or at the cut
-        # eigenvalues alone: LAPACK's Schur form without vectors is ~10x more accurate
-        w = scipy.linalg.eigvals(A)
-        ok = np.isfinite(w) & (np.abs(w.imag) <= 1e-7 * np.maximum(1.0, np.abs(w.real)))
-        w = np.sort(w[ok].real)
-        out = (w, col, A, end_map if end_row else None, end_row)
-        self.cache[n] = out
+        K = left[:, None] * basis.D * right[None, :]
+        C = K.T @ K
+        C[np.diag_indices_from(C)] += c
+        e = g_end = None
+        if self.ir is BoundaryKind.NEUMANN:
+            # boundary term of the weak form for phi'(z0) = 0: p L_s u v at the wall
+            ze = np.array([self.z_end])
+            e = interpolation_matrix(basis.domain.to_x(z), basis.bary, basis.domain.to_x(ze))[0]
+            e = e * right
+            g_end = float(np.exp(self.log_P(ze)[0] + 2.0 * self.log_s(ze)[0])
+                          * self.dlog_s(ze)[0])
+            if not math.isfinite(g_end):
+                raise NotApplicableError(f"P or Delta/z is not finite at the wall z0 = "
+                                         f"{self.z_end:g}")
+            C += g_end * np.outer(e, e)
+        kk = min(k, m)
+        _, Y = scipy.linalg.eigh(C, subset_by_index=[0, kk - 1], driver="evr",
+                                 check_finite=False)
+        # Rayleigh quotients in factored form: free of the rounding of K^T K
+        KY = K @ Y
+        lam = np.sum(KY**2, axis=0) + c @ Y**2
+        if e is not None:
+            lam = lam + g_end * (e @ Y) ** 2
+        lam = lam / np.sum(Y**2, axis=0)
+        order = np.argsort(lam)
+        u = Y[:, order] * right[:, None]  # sum w rho v^2 = 1
+        if self.dirichlet:
+            u *= (self.z_end - z)[:, None]
+        out = _Level(lam[order], u, basis)
+        self.cache[m] = out
         return out
 
-    def vectors(self, n: int, lam: np.ndarray) -> tuple[np.ndarray, Collocation]:
-        """Node values of u for the eigenvalues ``lam`` (from :meth:`eig` at the same n)."""
-        import scipy.linalg
 
-        _, col, A, end_map, end_row = self.eig(n)
-        w, V = scipy.linalg.eig(A)
-        idx = np.array([int(np.argmin(np.abs(w - x))) for x in lam], dtype=int)
-        V = V[:, idx].real
-        if end_row:
-            last = end_map @ V if end_map is not None else np.zeros(V.shape[1])
-            V = np.vstack([V, last])
-        return V, col
+@functools.lru_cache(maxsize=1)
+def _blas_controller() -> Any:
+    """One threadpoolctl controller per process (building one scans the loaded libraries)."""
+    try:
+        from threadpoolctl import ThreadpoolController
+    except ImportError:  # pragma: no cover - threadpoolctl is a dependency
+        return None
+    return ThreadpoolController()
 
 
 def _single_thread() -> Any:
-    """Limit BLAS to one thread for these small matrices when threadpoolctl is installed.
+    """Limit BLAS to one thread for these small matrices.
 
     Multithreaded LAPACK gains nothing at a few hundred unknowns and loses a factor of ten or more
     on a loaded machine.
     """
-    try:
-        from threadpoolctl import threadpool_limits
-    except ImportError:
+    ctl = _blas_controller()
+    if ctl is None:  # pragma: no cover
         return contextlib.nullcontext()
-    return threadpool_limits(limits=1, user_api="blas")
+    return ctl.limit(limits=1, user_api="blas")
 
 
 def _match(fine: np.ndarray, coarse: np.ndarray) -> np.ndarray:
@@ -212,7 +263,10 @@ def _prepare(background: Any, channel: Channel, boundary: Any) -> tuple[_Problem
     z_end = background.z_ir if not half else 1.0
     if not half and not (math.isfinite(z_end) and z_end > 0):
         raise InputError("background", f"IR end at z = {z_end} is not a positive number")
-    prob = _Problem(comp, values, delta, kappa, z_end, half, bounds.ir.kind)
+    # Jacobi exponent at z = 0: p ~ z^(alpha + 2 Delta), rho ~ z^(gamma + 2 Delta), rho c at most
+    # one power lower; the weight takes up all but that one power
+    beta = max(min(alpha, gamma) + 2.0 * delta - 1.0, 0.0)
+    prob = _Problem(comp, values, delta, kappa, z_end, half, bounds.ir.kind, beta)
     if kind is IRKind.CAP:
         a_near = prob._call(comp.a, np.array([z_end * (1 - 1e-6)]))[0]
         if not (abs(a_near) < 1e-3):
@@ -237,14 +291,15 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
         raise InputError("resolution", f"must be an integer in [8, {MAX_DEGREE}]")
     prob, bounds = _prepare(background, ch, boundary)
     if prob.half:
-        scale = 1.0
-        prob.z_end = _half_line_cut(prob, states, scale)
-        n = resolution or max(48, 4 * states + 32)
+        prob.z_end = _half_line_cut(prob, states, 1.0)
+        n = resolution or max(32, 3 * states + 24)
     else:
-        n = resolution or max(32, 3 * states + 16)
+        n = resolution or max(24, 2 * states + 8)
+    # a few eigenpairs beyond the wanted ones, to see spurious or unresolved ones among them
+    k = states + max(4, states // 4)
     while True:
-        lam_c = prob.eig(n)[0]
-        lam_f = prob.eig(2 * n)[0]
+        coarse, fine = prob.level(n, k), prob.level(2 * n, k)
+        lam_c, lam_f = coarse.lam, fine.lam
         dist = _match(lam_f, lam_c)
         partnered = dist <= PARTNER_TOL * np.maximum(1.0, np.abs(lam_f))
         keep = np.nonzero(partnered)[0][:states]
@@ -260,16 +315,16 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
     discarded = int(np.count_nonzero(~partnered[: keep[-1] + 1])) if keep.size else 0
     parts = []
     if keep.size < states:
-        parts.append(f"only {keep.size} of {states} states resolved at degree {2 * n}")
+        parts.append(f"only {keep.size} of {states} states resolved with {2 * n} nodes")
     if keep.size and not np.all(ok_err):
         worst = int(np.argmax(err / (tol * np.maximum(1.0, np.abs(lam)))))
-        parts.append(f"state n={worst} differs by {err[worst]:.2e} between degrees {n} and {2 * n}"
-                     f" (tolerance {tol:g})")
+        parts.append(f"state n={worst} differs by {err[worst]:.2e} between {n} and {2 * n} "
+                     f"nodes (tolerance {tol:g})")
     if below.any():
         parts.append("an unresolved eigenvalue lies among the returned ones; numbering uncertain")
     converged = not parts
     if converged:
-        message = (f"{states} states converged: degrees {n} and {2 * n} agree within "
+        message = (f"{states} states converged: {n} and {2 * n} nodes agree within "
                    f"{tol:g} (relative)")
         if discarded:
             message += f"; {discarded} spurious eigenvalue(s) discarded"
@@ -281,11 +336,8 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
         "bounds": bounds,
         "lam": lam,
         "err": err,
-        # modes from the coarse matrix: the wanted states agree there to the tolerance, and the
-        # eigenvector solve costs 8x less than at 2N
-        "V_col": prob.vectors(n, lam_c[np.array([int(np.argmin(np.abs(lam_c - x)))
-                                                 for x in lam], dtype=int)]
-                              if lam.size else lam),
+        # modes from the fine level, where they come with the eigenvalues
+        "V_col": (fine.u[:, keep], fine.basis),
         "n": n,
         "converged": converged,
         "message": message,
@@ -305,7 +357,7 @@ def _gl_nodes(z_end: float, m: int) -> tuple[np.ndarray, np.ndarray]:
     return 0.5 * z_end * (x + 1.0), 0.5 * z_end * w
 
 
-def _normalised_u(prob: _Problem, V: np.ndarray, col: Collocation) -> np.ndarray:
+def _normalised_u(prob: _Problem, V: np.ndarray, col: NodalBasis) -> np.ndarray:
     """Node values of u scaled so that int W phi^2 dz = 1 and u(0) > 0."""
     zq, wq = _gl_nodes(prob.z_end, 2 * col.z.size + 16)
     uq = col.evaluate(V.T, zq)
@@ -407,7 +459,7 @@ def _assemble(background: Any, out: dict[str, Any], prob: _Problem, states: int,
         parameters=dict(background.params),
         frame=str(ch.frame),
         settings={
-            "method": "rectangular Chebyshev collocation, degrees N and 2N",
+            "method": METHOD,
             "resolution": [out["n"], 2 * out["n"]],
             "fixed_resolution": resolution,
             "tol": tol,
