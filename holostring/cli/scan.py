@@ -61,6 +61,13 @@ def scan(
         if name in fixed:
             raise InputError(f"--param {name}", "is also given with --vary; give it once")
     bg = resolve_background(background, param)
+    # validate the plan and the observables before anything is drawn or written
+    from holostring.fit.observables import parse_observable
+    from holostring.scan.plan import grid_plan, random_plan
+
+    plan = random_plan(vary, random, seed) if random is not None else grid_plan(vary)
+    for spec in observe:
+        parse_observable(spec)
     store = None
     if out is not None:
         from holostring.report.files import prepare_dir
@@ -78,7 +85,7 @@ def scan(
                 bar(done, total)
 
             result = run_scan(
-                bg, vary, observe, samples=random, seed=seed, workers=workers, scheduler=scheduler,
+                bg, plan, observe, seed=seed, workers=workers, scheduler=scheduler,
                 progress=progress, store=store, retry_failed=retry_failed,
             )  # fmt: skip
     except KeyboardInterrupt:

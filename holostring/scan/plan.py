@@ -18,6 +18,9 @@ from typing import Any
 
 from holostring.errors import InputError
 
+#: the largest scan accepted (a million points is already hours of work on two cores)
+MAX_POINTS = 1_000_000
+
 GRID = "grid"
 RANDOM = "random"
 
@@ -126,6 +129,8 @@ def parse_vary(spec: str) -> Axis:
             raise InputError(field, f"COUNT '{parts[2]}' is not a whole number") from None
         if count < 1:
             raise InputError(field, f"COUNT must be at least 1, got {count}")
+        if count > MAX_POINTS:
+            raise InputError(field, f"COUNT {count} is more than {MAX_POINTS} points")
         if count > 1 and start == stop:
             raise InputError(field, f"START and STOP are equal ({start:g}) but COUNT is {count}")
     if log and (start <= 0 or stop <= 0):
@@ -223,6 +228,9 @@ def grid_plan(vary: Sequence[str | Axis]) -> ScanPlan:
     30
     """
     axes = _as_axes(vary)
+    total = math.prod(len(a.grid()) for a in axes)
+    if total > MAX_POINTS:
+        raise InputError("--vary", f"the grid has {total} points, more than {MAX_POINTS}")
     points = tuple(itertools.product(*(a.grid() for a in axes)))
     return ScanPlan(axes, GRID, points)
 
@@ -242,6 +250,8 @@ def random_plan(vary: Sequence[str | Axis], samples: int, seed: int = 0) -> Scan
     axes = _as_axes(vary)
     if isinstance(samples, bool) or not isinstance(samples, int) or samples < 1:
         raise InputError("--random", f"the number of samples must be a whole number >= 1, got {samples}")
+    if samples > MAX_POINTS:
+        raise InputError("--random", f"{samples} samples is more than {MAX_POINTS}")
     for a in axes:
         if a.values is not None:
             raise InputError(f"--vary {a.name}", "random samples need a range START:STOP, not a list")
