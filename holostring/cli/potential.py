@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from enum import Enum
+from enum import StrEnum
 from pathlib import Path
 
 import typer
@@ -10,7 +10,7 @@ import typer
 from holostring.cli.common import BACKGROUND_HELP, PARAM_HELP, echo_json, guarded, resolve_background
 
 
-class SchemeChoice(str, Enum):
+class SchemeChoice(StrEnum):
     """Regularisation schemes (mirrors holostring.strings.Scheme, kept here so --help is fast)."""
 
     uv_pole = "uv-pole"
@@ -65,7 +65,7 @@ def potential(
         symbolic = diagnose(bg)
     except ImportError:  # pragma: no cover - diagnostics not installed
         symbolic = None
-    except Exception:  # noqa: BLE001 - symbolic extras are optional in the summary
+    except Exception:
         symbolic = None
     from holostring.report.potential import summary_lines, write_potential_outputs
 

@@ -45,6 +45,33 @@ class EndKind:
     END = "end"  #: a smooth end with F > 0 and finite L (not continued)
 
 
+def _trim(c: np.ndarray, radius: float) -> np.ndarray:
+    """Drop trailing Taylor coefficients whose terms stay below 1e-18 of the largest on the disc."""
+    size = np.abs(c) * radius ** np.arange(c.size)
+    keep = np.nonzero(size > 1e-18 * size.max())[0]
+    return c[: max(int(keep[-1]) + 1, 3)].copy()
+
+
+def _series_difference(c: np.ndarray, ystar: np.ndarray, h: np.ndarray,
+                       r_star: np.ndarray | None = None) -> np.ndarray:
+    """``q(ystar + h) - q(ystar)`` for ``q(y) = sum c_k y^k`` with full relative accuracy.
+
+    Where ``h >= ystar / 4`` the two sums without ``c_0`` are subtracted (at most a factor ~3
+    of rounding is lost, one Horner pass per node); closer pairs use the cancellation-free
+    recurrence of :func:`~holostring.strings.quadrature.taylor_difference_h`. ``r_star``
+    optionally supplies ``q(ystar) - c_0`` (computed once per turning point by the caller).
+    """
+    c1 = c.copy()
+    c1[0] = 0.0
+    if r_star is None:
+        r_star = quad.taylor_value(c1, ystar)
+    out = quad.taylor_value(c1, ystar + h) - r_star
+    close = np.nonzero(h < 0.25 * ystar)[0]
+    if close.size:
+        out[close] = quad.taylor_difference_h(c, ystar[close], h[close])
+    return out
+
+
 @dataclass
 class Anchor:
     """Taylor data near the end of the family (see module docstring)."""
@@ -176,6 +203,8 @@ class ConnectedFamily:
                     ys_far = ys[1:]
                     good = good and np.allclose(quad.taylor_value(cH, ys_far), hd[1:], rtol=1e-9)
             if good:
+                cQ = _trim(cQ, use)
+                cH = None if cH is None else _trim(cH, use)
                 self.anchor = Anchor(z=za, radius=use, cQ=cQ, cH=cH, pH=pH)
                 return
             radius *= 0.5
@@ -216,6 +245,10 @@ class ConnectedFamily:
     def evaluate(self, p: np.ndarray, m: int = 12) -> dict[str, np.ndarray]:
         """L, W, z*, F* at parameters ``p`` with ``m`` Gauss points per panel.
 
+        All turning points are integrated at once: the nodes of every row (only the panels a
+        row needs, see :func:`~holostring.strings.quadrature.ragged_rule`) form one flat array,
+        the integrands are evaluated once per node and summed per row.
+
         Returns
         -------
         dict
@@ -224,24 +257,14 @@ class ConnectedFamily:
         p = np.atleast_1d(np.asarray(p, dtype=float))
         zs, ys = self.zstar(p)
         a = self.stretch(zs, ys)
-        L = np.empty_like(zs)
-        W = np.empty_like(zs)
-        Fstar = np.empty_like(zs)
-        plain = a >= quad.PLAIN_ABOVE
-        for rows in (plain, ~plain):
-            if not np.any(rows):
-                continue
-            if rows is plain:  # smooth integrand in t: a plain Gauss rule with fewer points
-                x, wx = quad.gauss_legendre(3 * m + 1)
-                t = np.broadcast_to(x, (int(rows.sum()), x.size))
-                w = np.broadcast_to(wx, t.shape)
-            else:
-                t, w = quad.stretched_rule(a[rows], m)
-            Fs, L_int, W_int = self.integrands(zs[rows], ys[rows], t)
-            Fstar[rows] = Fs
-            with np.errstate(all="ignore"):
-                L[rows] = 2.0 * np.sum(w * L_int, axis=1)
-                W[rows] = 2.0 * (np.sum(w * W_int, axis=1) + self.uv.P(zs[rows]))
+        row, t, w = quad.ragged_rule(a, m)
+        Qstar = self._Qstar(zs, ys)
+        L_int, W_int = self.integrands_flat(zs, ys, Qstar, row, t)
+        k = zs.size
+        with np.errstate(all="ignore"):
+            L = 2.0 * np.bincount(row, weights=w * L_int, minlength=k)
+            W = 2.0 * (np.bincount(row, weights=w * W_int, minlength=k) + self.uv.P(zs))
+        Fstar = np.sqrt(Qstar)
         # the horizon itself: F* = 0, the string is the straight pair (L = 0)
         if self.end == EndKind.HORIZON:
             L = np.where((Fstar <= 0) | ~np.isfinite(L), 0.0, L)
@@ -258,44 +281,82 @@ class ConnectedFamily:
 
     def integrands(self, zs: np.ndarray, ys: np.ndarray, t: np.ndarray
                    ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-        """F*, and the L and W integrands in t (Jacobian 2 z* t included) at z = z*(1 - t^2)."""
-        an = self.anchor
-        zsb = zs[:, None]
-        h = zsb * t * t
-        z = zsb - h
+        """F*, and the L and W integrands in t (Jacobian 2 z* t included) at z = z*(1 - t^2).
+
+        ``t`` has shape ``(k, n)``: ``n`` nodes for each of the ``k`` turning points.
+        """
+        t = np.asarray(t, dtype=float)
+        k, n = t.shape
+        row = np.repeat(np.arange(k), n)
         Qstar = self._Qstar(zs, ys)
-        dQ = np.empty_like(h)
-        Qz = np.empty_like(h)
-        Hz = np.empty_like(h)
-        done = np.zeros(h.shape, dtype=bool)
+        L_int, W_int = self.integrands_flat(zs, ys, Qstar, row, t.ravel())
+        return np.sqrt(Qstar), L_int.reshape(k, n), W_int.reshape(k, n)
+
+    def integrands_flat(self, zs: np.ndarray, ys: np.ndarray, Qstar: np.ndarray,
+                        row: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """The L and W integrands at flat nodes ``t`` belonging to turning points ``zs[row]``.
+
+        ``Q - Q*`` is what the accuracy hinges on. Near the anchor it comes from the Taylor
+        data (a difference of series, no cancellation); elsewhere directly when less than a
+        digit cancels, and otherwise as ``h`` times the mean of ``dQ/dz`` on the segment.
+        """
+        an = self.anchor
+        zr = zs[row]
+        h = zr * t * t
+        z = zr - h
+        Qs = Qstar[row]
+        n = t.size
+        dQ = np.empty(n)
+        Qz = np.empty(n)
+        Hz = np.empty(n)
         with np.errstate(all="ignore"):
             if an is not None:
-                y = ys[:, None] + h
-                A = y <= an.radius
-                ysA = np.broadcast_to(ys[:, None], h.shape)[A]
-                dQ[A] = quad.taylor_difference_h(an.cQ, ysA, h[A])
-                Qz[A] = quad.taylor_value(an.cQ, y[A])
+                yr = ys[row]
+                A = (yr + h) <= an.radius
+                iA = np.nonzero(A)[0]
+                rest = np.nonzero(~A)[0]
+                c1 = an.cQ.copy()
+                c1[0] = 0.0
+                near = ys <= an.radius
+                r_row = np.zeros_like(ys)
+                r_row[near] = quad.taylor_value(c1, ys[near])
+                dA = _series_difference(an.cQ, yr[iA], h[iA], r_row[row[iA]])
+                dQ[iA] = dA
+                Qz[iA] = Qs[iA] + dA
                 if an.cH is not None:
-                    Hz[A] = np.sqrt(quad.taylor_value(an.cH, y[A]) / y[A] ** an.pH)
+                    yA = yr[iA] + h[iA]
+                    Hz[iA] = np.sqrt(quad.taylor_value(an.cH, yA) / yA**an.pH)
+                    Hz[rest] = np.sqrt(self.H2(z[rest]))
                 else:
-                    Hz[A] = np.sqrt(self.H2(z[A]))
-                done |= A
-            rest = ~done
-            Qz[rest] = self.Q(z[rest])
-            Hz[rest] = np.sqrt(self.H2(z[rest]))
-            B = rest & (h <= 0.25 * zsb)
-            zB = np.broadcast_to(zsb, h.shape)[B]
-            dQ[B] = -quad.mean_on_segment(self.dQ, zB, h[B])
-            C = rest & ~B
-            dQ[C] = Qz[C] - np.broadcast_to(Qstar[:, None], h.shape)[C]
-            Fstar = np.sqrt(Qstar)
+                    Hz[:] = np.sqrt(self.H2(z))
+            else:
+                rest = np.arange(n)
+                Hz[:] = np.sqrt(self.H2(z))
+            zR, hR = z[rest], h[rest]
+            QR = np.asarray(self.Q(zR), dtype=float)
+            Qz[rest] = QR
+            direct = QR - Qs[rest]
+            # less than a digit left in the direct difference: use the mean of dQ on the segment
+            lost = (direct < 0.1 * QR) & (hR <= 0.25 * zr[rest])
+            for m_seg, sel in ((4, lost & (hR <= 0.02 * zr[rest])),
+                               (8, lost & (hR > 0.02 * zr[rest]))):
+                i = np.nonzero(sel)[0]
+                if i.size:
+                    direct[i] = -quad.mean_on_segment(self.dQ, zr[rest][i], hR[i], m_seg)
+            dQ[rest] = direct
             root = np.sqrt(dQ / Qz)  # sqrt(1 - Q*/Q)
-            jac = 2.0 * zsb * t
-            L_int = jac * Hz * Fstar[:, None] / (np.sqrt(Qz) * np.sqrt(dQ))
-            small = z < self.uv.series_radius
-            HmD = np.where(small, self.uv.regular_part(z), Hz - self.uv.D(z))
-            W_int = jac * (-Hz * (Qstar[:, None] / Qz) / (1.0 + root) + HmD)
-        return Fstar, L_int, W_int
+            jac = 2.0 * zr * t
+            Fs = np.sqrt(Qs)
+            L_int = jac * Hz * Fs / (np.sqrt(Qz) * np.sqrt(dQ))
+            uv = self.uv
+            HmD = np.empty(n)
+            small = z < uv.series_radius
+            i = np.nonzero(small)[0]
+            HmD[i] = uv.regular_part(z[i])
+            i = np.nonzero(~small)[0]
+            HmD[i] = Hz[i] - uv.D(z[i])
+            W_int = jac * (-Hz * (Qs / Qz) / (1.0 + root) + HmD)
+        return L_int, W_int
 
     def _Qstar(self, zs: np.ndarray, ys: np.ndarray) -> np.ndarray:
         an = self.anchor

@@ -19,7 +19,7 @@ from holostring.strings.connected import ConnectedFamily, EndKind
 from holostring.strings.schemes import Scheme, straight_pair_energy
 
 #: Gauss points per panel for the two resolutions (error estimate = difference).
-M_LO, M_HI = 12, 16
+M_LO, M_HI = 9, 12
 TABLE_POINTS = 240
 
 

@@ -109,6 +109,71 @@ def stretched_rule(a: np.ndarray, m: int) -> tuple[np.ndarray, np.ndarray]:
     return t, w
 
 
+def ragged_rule(a: np.ndarray, m: int, plain_points: int | None = None,
+                tail_points: int | None = None) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The rule of :func:`stretched_rule` without its empty panels, flattened over all rows.
+
+    Rows with ``a >= PLAIN_ABOVE`` get ``plain_points`` Gauss-Legendre points in ``t``. The other rows
+    get only the panels of the ``s = asinh(t / a)`` map that have non-zero length (about
+    ``asinh(T_SPLIT / a) / PANEL_LENGTH`` of them, at most ``PANELS``, plus the one-point panel
+    when ``a`` is tiny) and ``tail_points`` points on ``[T_SPLIT, 1]``. The number of nodes therefore
+    grows like ``log(1 / a)`` instead of being the worst case for every row.
+
+    Parameters
+    ----------
+    a
+        Stretching scales (> 0), shape ``(k,)``.
+    m
+        Gauss points per panel.
+    plain_points, tail_points
+        Default ``2 m + 1`` and ``4 m / 3`` (rounded up), for integrands analytic in a
+        neighbourhood of ``[0, 1]`` whose nearest singularity is O(1) away.
+
+    Returns
+    -------
+    row, t, w
+        Flat arrays: the row each node belongs to, the node and its weight;
+        ``np.bincount(row, w * f(t), minlength=k)`` approximates ``int_0^1 f dt`` per row.
+    """
+    a = np.atleast_1d(np.asarray(a, dtype=float))
+    plain = a >= PLAIN_ABOVE
+    plain_points = 2 * m + 1 if plain_points is None else int(plain_points)
+    tail_points = -(-4 * m // 3) if tail_points is None else int(tail_points)
+    xp, wp = gauss_legendre(plain_points)
+    rp = np.nonzero(plain)[0]
+    rows = [np.repeat(rp, xp.size)]
+    ts = [np.tile(xp, rp.size)]
+    ws = [np.tile(wp, rp.size)]
+    rs = np.nonzero(~plain)[0]
+    if rs.size:
+        a_s = np.maximum(a[rs], 1e-300)
+        S = np.arcsinh(T_SPLIT / a_s)
+        npan = np.clip(np.ceil(S / PANEL_LENGTH), 1, PANELS).astype(int)
+        pr = np.repeat(np.arange(rs.size), npan)
+        j = np.arange(pr.size) - np.repeat(np.cumsum(npan) - npan, npan)
+        hi = S[pr] - j * PANEL_LENGTH
+        lo = np.maximum(hi - PANEL_LENGTH, 0.0)
+        xg, wg = gauss_legendre(m)
+        s = lo[:, None] + (hi - lo)[:, None] * xg[None, :]
+        wsn = (hi - lo)[:, None] * wg[None, :]
+        ap = a_s[pr][:, None]
+        rows.append(np.repeat(rs[pr], m))
+        ts.append((ap * np.sinh(s)).ravel())
+        ws.append((wsn * ap * np.cosh(s)).ravel())
+        rest = S - PANELS * PANEL_LENGTH  # [0, rest]: the integrand is constant there
+        lump = np.nonzero(rest > 0)[0]
+        if lump.size:
+            s0 = 0.5 * rest[lump]
+            rows.append(rs[lump])
+            ts.append(a_s[lump] * np.sinh(s0))
+            ws.append(rest[lump] * a_s[lump] * np.cosh(s0))
+        x2, w2 = gauss_legendre(tail_points)
+        rows.append(np.repeat(rs, x2.size))
+        ts.append(np.tile(T_SPLIT + (1.0 - T_SPLIT) * x2, rs.size))
+        ws.append(np.tile((1.0 - T_SPLIT) * w2, rs.size))
+    return np.concatenate(rows), np.concatenate(ts), np.concatenate(ws)
+
+
 def taylor_coefficients(f, center: float, radius: float, n: int = 64) -> np.ndarray:
     """Taylor coefficients of an analytic function by the Cauchy integral (trapezoid rule / FFT).
 

@@ -67,3 +67,21 @@ def test_mean_on_segment():
     got = quad.mean_on_segment(np.cos, z, h)
     exact = 2 * np.cos(z - h / 2) * np.sin(h / 2)
     assert np.allclose(got, exact, rtol=1e-14)
+
+
+@pytest.mark.parametrize("m", [9, 12])
+def test_ragged_rule_matches_closed_form_for_every_row(m):
+    # int_0^1 dt / sqrt(a^2 + t^2) = asinh(1/a) (Abramowitz-Stegun 4.6.20 / 3.3.44) for many
+    # scales at once, empty panels left out
+    a = np.array([1e-200, 1e-60, 1e-12, 1e-5, 0.01, 0.3, 0.5, 3.0])
+    row, t, w = quad.ragged_rule(a, m)
+    got = np.bincount(row, weights=w / np.sqrt(a[row] ** 2 + t * t), minlength=a.size)
+    assert np.allclose(got, np.arcsinh(1.0 / a), rtol=1e-14, atol=0)
+    # fewer nodes for moderate a than for tiny a: only the panels that are needed
+    counts = np.bincount(row, minlength=a.size)
+    assert counts[4] < counts[0]
+    # a smooth factor on top: cos(t), against the fixed-width stretched rule
+    t2, w2 = quad.stretched_rule(a, 16)
+    ref = np.sum(w2 * np.cos(t2) / np.sqrt(a[:, None] ** 2 + t2 * t2), axis=1)
+    got = np.bincount(row, weights=w * np.cos(t) / np.sqrt(a[row] ** 2 + t * t), minlength=a.size)
+    assert np.allclose(got, ref, rtol=1e-12 if m == 9 else 1e-14, atol=0)
