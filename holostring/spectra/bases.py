@@ -53,13 +53,14 @@ def interpolation_matrix(x: np.ndarray, w: np.ndarray, targets: np.ndarray) -> n
         Shape ``(len(targets), len(x))``; exact rows where a target hits a node.
     """
     t = np.asarray(targets, dtype=float).reshape(-1)
-    diff = t[:, None] - x[None, :]
-    exact = diff == 0.0
+    E = np.subtract.outer(t, x)
+    exact = E == 0.0
+    hit = exact.any(axis=1)
     with np.errstate(divide="ignore", invalid="ignore"):
-        kernel = w[None, :] / diff
-        E = kernel / kernel.sum(axis=1, keepdims=True)
-    rows = exact.any(axis=1)
-    E[rows] = exact[rows].astype(float)
+        np.divide(w, E, out=E)
+        E /= E.sum(axis=1, keepdims=True)
+    if hit.any():
+        E[hit] = exact[hit]
     return E
 
 
@@ -194,17 +195,21 @@ class NodalBasis:
     def _factor(self, z: np.ndarray) -> np.ndarray:
         return self.domain.b - z if self.right_zero else np.ones_like(z)
 
+    def _matrix(self, z: np.ndarray) -> np.ndarray:
+        return interpolation_matrix(self.domain.to_x(self.z), self.bary, self.domain.to_x(z))
+
     def evaluate(self, values: np.ndarray, z: np.ndarray) -> np.ndarray:
         """Evaluate functions (node values in the last axis) at physical points ``z``."""
         z = np.asarray(z, dtype=float).reshape(-1)
-        E = interpolation_matrix(self.domain.to_x(self.z), self.bary, self.domain.to_x(z))
-        return (values / self._factor(self.z)) @ E.T * self._factor(z)
+        # contiguous operands: numpy's matmul is many times slower on transposed views
+        v = np.ascontiguousarray(values / self._factor(self.z))
+        return v @ self._matrix(z).T * self._factor(z)
 
     def derivative(self, values: np.ndarray, z: np.ndarray) -> np.ndarray:
         """First z-derivative of the functions at physical points ``z``."""
         z = np.asarray(z, dtype=float).reshape(-1)
-        v = values / self._factor(self.z)
-        E = interpolation_matrix(self.domain.to_x(self.z), self.bary, self.domain.to_x(z))
+        v = np.ascontiguousarray(values / self._factor(self.z))
+        E = self._matrix(z)
         dv = (v @ self.D.T) @ E.T
         if not self.right_zero:
             return dv
