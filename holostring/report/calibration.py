@@ -31,7 +31,8 @@ def calibration_tables(res: Any) -> list[Any]:
         ]
         fitted.caption += "; correlations " + ", ".join(pairs)
     pred = Table(title="predictions of the calibrated model", title_justify="left")
-    for col in ("observable", "model", "± propagated", "target", "pull", "unit"):
+    pred.add_column("observable", overflow="fold")
+    for col in ("model", "± propagated", "target", "pull", "unit"):
         pred.add_column(col)
     for p in res.predictions:
         pull = p.pull

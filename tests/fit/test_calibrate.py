@@ -179,3 +179,24 @@ def test_example_targets_file_loads():
         ts = load_targets(path)
         assert ts.targets and ts.free
         assert all(t.source for t in ts.targets)
+
+
+def test_two_parameter_string_calibration_reproduces_targets():
+    # Targets: sqrt(sigma) = 0.44 GeV (lattice, common practice; Bali hep-ph/0001312, from memory)
+    # and r0 = 0.5 fm (Sommer hep-lat/9310022, from memory). Recomputed independently afterwards:
+    # sigma from the closed form g e c/2 (Andreev-Zakharov hep-ph/0604204), r0 from a fresh V(L).
+    from pathlib import Path
+
+    from holostring.fit.targets import load_targets
+    from holostring.strings import compute_potential
+
+    path = Path(__file__).resolve().parents[2] / "examples" / "targets" / "lattice-hadrons.toml"
+    ts = load_targets(path)
+    ts = type(ts)(ts.targets, ts.free, ts.fixed, (), ts.energy_unit, ts.origin)  # no extra predictions
+    res = calibrate(load_background("soft-wall"), ts)
+    assert res.converged, res.message
+    c, g = res.values["c"], res.values["g"]
+    assert math.sqrt(g * math.e * c / 2) == pytest.approx(0.44, rel=1e-8)
+    pot = compute_potential(load_background("soft-wall", c=c, g=g))
+    assert pot.r0 * HBARC_GEV_FM == pytest.approx(0.5, rel=1e-7)
+    assert -1 < res.correlation[0, 1] < 1
