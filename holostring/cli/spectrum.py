@@ -37,7 +37,7 @@ def spectrum(
 ) -> None:
     """Masses m_n of a channel: -psi'' + U psi = m^2 psi on BACKGROUND.
 
-    Solved by Chebyshev collocation at two resolutions; the difference is the error shown.
+    Solved by a spectral Galerkin method at two resolutions; the difference is the error shown.
     Needs a confining IR end (hard wall, cap, or a confining potential at infinity).
     """
     from holostring.errors import InputError

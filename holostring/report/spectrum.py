@@ -43,7 +43,7 @@ def _caption(result: Any) -> str:
     params = ", ".join(f"{k}={v:g}" for k, v in result.provenance.parameters.items())
     lo, hi = result.resolution
     return (f"{result.provenance.background} ({params}); channel {result.channel}; "
-            f"{result.boundaries['statement']}; Chebyshev degrees {lo}/{hi}")
+            f"{result.boundaries['statement']}; Gauss-Jacobi nodes {lo}/{hi}")
 
 
 def print_summary(result: Any, fit: Any | None = None) -> None:
@@ -87,10 +87,17 @@ def print_summary(result: Any, fit: Any | None = None) -> None:
 
 
 def plot_potential(result: Any, ax: Any = None, levels: int = 8) -> Any:
-    """U(z) with the first levels m_n^2 drawn between their turning points, and psi_n on them."""
-    from holostring.report.style import COLORS, pyplot
+    """U(z) with the first levels m_n^2 drawn between their turning points, and psi_n on them.
+
+    Levels are coloured along a sequential colour map (dark for n = 0), so no two share a
+    colour however many are drawn.
+    """
+    from holostring.report.style import pyplot
 
     plt = pyplot()
+    import matplotlib
+
+    cmap = matplotlib.colormaps["viridis"]
     if ax is None:
         _, ax = plt.subplots(figsize=(7.0, 4.8))
     z, U = result.z, result.potential
@@ -115,7 +122,8 @@ def plot_potential(result: Any, ax: Any = None, levels: int = 8) -> Any:
     ax.plot(z, U, color="black", lw=1.6, label="U")
     scale = 0.4 * gap
     for i in range(k):
-        color = COLORS[i % len(COLORS)]
+        # stop short of viridis' pale yellow end, which is hard to see on white
+        color = cmap(0.88 * i / max(k - 1, 1))
         allowed = U <= lam[i]
         zs = z[allowed] if allowed.any() else z
         ax.hlines(lam[i], zs.min(), zs.max(), color=color, lw=0.9, ls="--")

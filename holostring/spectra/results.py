@@ -47,7 +47,7 @@ class SpectrumResult:
     field_modes
         phi_n(z) = psi_n / (P W)^{1/4}, same normalisation (int W phi^2 dz = 1).
     resolution
-        The two polynomial degrees compared (coarse, fine).
+        The two numbers of nodes compared (coarse m, fine 2m).
     delta
         UV exponent: phi ~ z^delta.
     domain

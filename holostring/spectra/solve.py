@@ -410,7 +410,8 @@ def solve_spectrum(
         At a hard wall: ``"dirichlet"`` (default) or ``"neumann"``, a condition on the field
         phi. Must be ``None`` for other IR ends (their condition is fixed).
     resolution
-        Fixed polynomial degree N (compared with 2N); ``None`` adapts N by doubling.
+        Fixed number of nodes N (compared with 2N); ``None`` starts from N ~ 2-3 x states and
+        doubles N until the states agree.
     tol
         Relative tolerance on m_n^2 (absolute below |m^2| = 1).
     strict

@@ -42,3 +42,19 @@ def test_errors_are_one_line_exit_2():
         res = runner.invoke(app, args)
         assert res.exit_code == 2, (args, res.output)
         assert "Traceback" not in res.output
+
+
+def test_potential_plot_levels_have_distinct_colours():
+    from holostring.background import load_background
+    from holostring.report.spectrum import plot_potential
+    from holostring.report.style import pyplot
+    from holostring.spectra import solve_spectrum
+
+    r = solve_spectrum(load_background("soft-wall", c=1.0), "vector-meson", states=10)
+    plt = pyplot()
+    fig, ax = plt.subplots()
+    plot_potential(r, ax, levels=10)
+    colours = [tuple(line.get_color()) if not isinstance(line.get_color(), str)
+               else line.get_color() for line in ax.get_lines()[1:]]
+    plt.close(fig)
+    assert len(colours) == 10 and len(set(colours)) == 10
