@@ -42,6 +42,8 @@ def summary_lines(res: Any, symbolic: Any = None) -> list[str]:
         lines.append(f"  Cornell fit on L in [{fmt(c.L_range[0], 6)}, {fmt(c.L_range[1], 6)}] "
                      f"({c.points} points, {c.weights} weights, rms {c.rms:.2e}):")
         row("  kappa", c.kappa, ek)
+        if "coulomb_coefficient" in res.notes:
+            lines.append(f"    kappa: {res.notes['coulomb_coefficient']}")
         row("  sigma", c.sigma, es)
         row("  C", c.C, ec)
     for key in ("r0", "r1"):
@@ -55,6 +57,8 @@ def summary_lines(res: Any, symbolic: Any = None) -> list[str]:
     if res.screening_length is not None or "screening_length" in res.errors:
         row("screening length", res.screening_length, res.errors.get("screening_length"),
             res.notes.get("screening_length", ""))
+    for L_c, e in res.transitions:
+        row("first-order jump at L_c", L_c, e, "(V multi-valued: kink between branches)")
     for b in res.branches:
         lo, hi = b.L_range
         lines.append(f"  branch {b.label:<34} L in [{fmt(lo, 6)}, {fmt(hi, 6)}]"
@@ -148,7 +152,8 @@ def plot_branches(res: Any, ax: Any = None) -> Any:
         if b.L.size == 0:
             continue
         ls = "-" if b.stable else "--"
-        ax.plot(b.L, b.V, ls, color=COLORS[i % len(COLORS)], lw=1.6, label=b.label)
+        label = b.label + ("" if b.stable else ", dL/dz* < 0")
+        ax.plot(b.L, b.V, ls, color=COLORS[i % len(COLORS)], lw=1.6, label=label)
     ok = np.isfinite(res.V)
     ax.plot(res.L[ok], res.V[ok], color="k", lw=0.8, alpha=0.6, label="minimum energy")
     if res.max_separation is not None:
@@ -159,6 +164,24 @@ def plot_branches(res: Any, ax: Any = None) -> Any:
         ax.axvline(res.screening_length, color="0.5", lw=0.8, ls="-.")
         ax.annotate(rf"$L_s$={res.screening_length:.6g}", (res.screening_length, 0.02),
                     xycoords=("data", "axes fraction"), fontsize=8, rotation=90, ha="right")
+    for L_c, _e in res.transitions:
+        ax.axvline(L_c, color="0.3", lw=0.8, ls=(0, (1, 2)))
+        ax.annotate(rf"$L_c$={L_c:.6g} (first-order jump)", (L_c, 0.02),
+                    xycoords=("data", "axes fraction"), fontsize=8, rotation=90, ha="right")
+    unstable = [b for b in res.branches if b.kind == "connected" and not b.stable and b.L.size]
+    if res.max_separation is None and unstable:
+        # a swallowtail: zoom on the window where several connected strings coexist
+        lo_L = min(b.L_range[0] for b in unstable)
+        hi_L = max(b.L_range[1] for b in unstable)
+        width = hi_L - lo_L
+        x0, x1 = max(lo_L - 0.6 * width, float(res.L.min())), min(hi_L + 0.6 * width,
+                                                                  float(res.L.max()))
+        vals = np.concatenate([b.V[(b.L >= x0) & (b.L <= x1)] for b in res.branches])
+        if vals.size:
+            lo, hi = float(np.nanmin(vals)), float(np.nanmax(vals))
+            pad = 0.1 * (hi - lo if hi > lo else 1.0)
+            ax.set_ylim(lo - pad, hi + pad)
+            ax.set_xlim(x0, x1)
     if res.max_separation is not None:
         # zoom on the region where the branches meet (the Coulomb part dominates otherwise)
         vals = np.concatenate([b.V[b.L >= 0.3 * res.max_separation] for b in res.branches])

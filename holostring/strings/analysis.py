@@ -12,7 +12,7 @@ import math
 
 import numpy as np
 
-from holostring.strings.potential import M_HI, M_LO, Piece, Solver
+from holostring.strings.potential import Piece, Solver
 from holostring.strings.results import CornellFit
 
 SOMMER_R0 = 1.65
@@ -58,10 +58,10 @@ def cornell_fit(L: np.ndarray, V: np.ndarray, L_range: tuple[float, float] | Non
                       L_range=rng, points=int(Lf.size), rms=math.sqrt(float(resid @ resid) / Lf.size))
 
 
-def piece_energy(solver: Solver, p: np.ndarray, g: float, offset: float, m: int = M_HI
+def piece_energy(solver: Solver, p: np.ndarray, g: float, offset: float, m: int | None = None
                  ) -> dict[str, np.ndarray]:
-    """L, V, F*, z* of connected strings at parameters p (internal)."""
-    r = solver.fam.evaluate(np.atleast_1d(p), m)
+    """L, V, F*, z* of connected strings at parameters p (internal; m: the solver's finer one)."""
+    r = solver.fam.evaluate(np.atleast_1d(p), solver.m_hi if m is None else m)
     r["V"] = g * (r["W"] + r["Fstar"] * r["L"] - offset)
     return r
 
@@ -90,7 +90,7 @@ def screening_length(solver: Solver, g: float, offset: float, E_disc: float
         return None, 0.0, "the connected string stays below the disconnected pair on its whole range"
     i = int(idx[0])
     out = []
-    for m in (M_HI, M_LO):
+    for m in (solver.m_hi, solver.m_lo):
         pr = _root_in_p(lambda x, m=m: float(piece_energy(solver, x, g, offset, m)["V"][0] - E_disc),
                         p[i], p[i + 1])
         out.append(float(solver.fam.evaluate(np.array([pr]), m)["L"][0]))
@@ -106,8 +106,8 @@ def max_separation(solver: Solver) -> tuple[float | None, float]:
         return None, 0.0
     best = max(solver.pieces, key=lambda pc: max(pc.La, pc.Lb))
     p = best.pb if best.Lb >= best.La else best.pa
-    hi = float(fam.evaluate(np.array([p]), M_HI)["L"][0])
-    lo = float(fam.evaluate(np.array([p]), M_LO)["L"][0])
+    hi = float(fam.evaluate(np.array([p]), solver.m_hi)["L"][0])
+    lo = float(fam.evaluate(np.array([p]), solver.m_lo)["L"][0])
     return hi, abs(hi - lo)
 
 
@@ -137,7 +137,7 @@ def sommer_scale(target: float, solver: Solver, branches: list[dict], g: float, 
         values.extend((G + target).tolist())
         for i in np.nonzero(np.sign(G[:-1]) != np.sign(G[1:]))[0]:
             est = []
-            for m in (M_HI, M_LO):
+            for m in (solver.m_hi, solver.m_lo):
                 def fun(x, m=m):
                     rr = solver.fam.evaluate(np.array([x]), m)
                     return float(rr["L"][0] ** 2 * g * rr["Fstar"][0] - target)
@@ -178,3 +178,52 @@ def _is_minimum(r: float, V: float, solver: Solver, branches: list[dict], g: flo
         if other < V - 1e-12 * max(abs(V), 1.0):
             return False
     return True
+
+
+def branch_energy(solver: Solver, branch: dict, L: float, g: float, offset: float,
+                  m: int | None = None) -> float:
+    """Energy of one connected or wall branch at separation L (internal)."""
+    if branch["kind"] == "wall":
+        return branch["E0"] + g * branch["F0"] * (L - branch["L0"])
+    if branch["kind"] == "disconnected":
+        return branch["E"]
+    p = solver.solve(branch["piece"], np.array([L]))
+    return float(piece_energy(solver, p, g, offset, m)["V"][0])
+
+
+def transitions(solver: Solver, branches: list[dict], which: np.ndarray, grid: np.ndarray,
+                g: float, offset: float) -> list[tuple[float, float, int, int]]:
+    """Separations where the minimum-energy string jumps from one branch to another.
+
+    Between neighbouring grid points whose minimum lies on different branches (other than the
+    disconnected pair, whose crossing is the screening length) the energies are equated by
+    Brent's method, at both resolutions.
+
+    Returns
+    -------
+    list of (L_c, error_estimate, branch_before, branch_after)
+    """
+    from scipy.optimize import brentq
+
+    out = []
+    order = np.argsort(grid)
+    Ls, w = grid[order], which[order]
+    for k in np.nonzero((w[:-1] != w[1:]) & (w[:-1] >= 0) & (w[1:] >= 0))[0]:
+        i, j = int(w[k]), int(w[k + 1])
+        bi, bj = branches[i], branches[j]
+        if "disconnected" in (bi["kind"], bj["kind"]):
+            continue
+        lo = max(Ls[k], bi["L_range"][0], bj["L_range"][0])
+        hi = min(Ls[k + 1], bi["L_range"][1], bj["L_range"][1])
+        est = []
+        for m in (solver.m_hi, solver.m_lo):
+            def diff(L, m=m, bi=bi, bj=bj):
+                return (branch_energy(solver, bi, L, g, offset, m)
+                        - branch_energy(solver, bj, L, g, offset, m))
+            try:
+                est.append(brentq(diff, lo, hi, xtol=1e-14, rtol=1e-14, maxiter=200))
+            except ValueError:  # the branches do not cross inside: the switch is an end point
+                break
+        if len(est) == 2:
+            out.append((float(est[0]), abs(est[0] - est[1]), i, j))
+    return out

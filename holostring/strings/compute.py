@@ -12,8 +12,7 @@ from holostring.provenance import Provenance
 from holostring.strings import analysis
 from holostring.strings.connected import ConnectedFamily, EndKind
 from holostring.strings.potential import (
-    M_HI,
-    M_LO,
+    RESOLUTIONS,
     Solver,
     build_branches,
     check_tolerance,
@@ -104,11 +103,16 @@ def compute_potential(
     L_hi = float(grid.max())
     if fam.confining:
         L_hi = max(L_hi, 30.0 * ref)
-    solver = Solver(fam, L_lo, L_hi)
     offset, offset_err = scheme_offset(fam, sch)
-    raw = build_branches(solver, grid, g, offset, offset_err)
-    if fam.end == EndKind.HORIZON:
-        raw.append(disconnected_branch(fam, grid, g, offset, offset_err))
+    # two resolutions; a finer pair when an estimate is above the tolerance (explicit ladder)
+    for m_lo, m_hi in RESOLUTIONS:
+        solver = Solver(fam, L_lo, L_hi, m_lo, m_hi)
+        raw = build_branches(solver, grid, g, offset, offset_err)
+        if fam.end == EndKind.HORIZON:
+            raw.append(disconnected_branch(fam, grid, g, offset, offset_err))
+        bad = _too_large(raw, tol)
+        if not bad:
+            break
     V, force, err, _scale, which = minimum_energy(raw, grid)
 
     notes: dict[str, str] = {}
@@ -120,6 +124,12 @@ def compute_potential(
     cornell = analysis.cornell_fit(grid[conn], V[conn], fit_range)
     if cornell is None:
         notes["cornell"] = "fewer than four connected points on the grid"
+    elif _asymptotically_ads(bg) is False:
+        notes["coulomb_coefficient"] = (
+            "not meaningful: the background is not asymptotically AdS, so V(L) has no -kappa/L "
+            "Coulomb law at small L; the Cornell kappa and C are fit parameters on the stated "
+            "range only")
+        messages.append("Cornell kappa " + notes["coulomb_coefficient"])
 
     # tension: effective (largest L tabulated) and the limit g F(z_end)
     tension = tension_limit = None
@@ -143,6 +153,11 @@ def compute_potential(
         errors["screening_length"] = e
         if why:
             notes["screening_length"] = why
+    jumps = analysis.transitions(solver, raw, which, grid, g, offset)
+    if jumps:
+        notes["transitions"] = (
+            "V(L) is multi-valued; the minimum-energy string jumps between branches (first-order "
+            "transition, a kink in V) at L = " + ", ".join(f"{x[0]:.10g}" for x in jumps))
     Lmax, e = analysis.max_separation(solver)
     if Lmax is not None:
         errors["max_separation"] = e
@@ -158,13 +173,12 @@ def compute_potential(
     branches = tuple(
         StringBranch(kind=b["kind"], stable=b["stable"], L=b["L"], V=b["V"], zstar=b["zstar"],
                      error=b["error"], L_range=tuple(float(x) for x in b["L_range"]),
-                     label=b["label"])
-        for b in raw
+                     label=b["label"], minimum=which[b["mask"]] == j)
+        for j, b in enumerate(raw)
     )
     finite = np.isfinite(V)
     if not np.all(finite):
         messages.append(f"no string configuration at {int((~finite).sum())} grid separations")
-    bad = [b for b in raw if b["L"].size and np.any(b["error"] > tol * np.maximum(b["scale"], 1e-300))]
     for b in bad:
         k = int(np.argmax(b["error"] / b["scale"]))
         messages.append(
@@ -188,7 +202,7 @@ def compute_potential(
         frame="string",
         settings={
             "scheme": str(sch),
-            "gauss_points_per_panel": [M_LO, M_HI],
+            "gauss_points_per_panel": [solver.m_lo, solver.m_hi],
             "tol": tol,
             "end_kind": fam.end,
             "uv_subtraction": fam.uv.text,
@@ -205,8 +219,25 @@ def compute_potential(
         error_estimate=error_estimate, converged=converged, message=message, provenance=prov,
         confinement_point=fam.z_end if fam.confining else None, end_kind=fam.end,
         notes=notes, errors=errors, physical=_physical(bg, tension, cornell, r0, r1, Lmax, Ls),
+        transitions=tuple((x[0], x[1]) for x in jumps),
     )
     return raise_or_return(res, strict)
+
+
+def _asymptotically_ads(bg: Background) -> bool | None:
+    """The symbolic diagnosis of the UV (None when it cannot be made)."""
+    try:
+        from holostring.background.diagnostics import diagnose
+
+        return bool(diagnose(bg).asymptotically_ads)
+    except Exception:  # the diagnosis is an optional annotation here, never a failure
+        return None
+
+
+def _too_large(raw: list[dict], tol: float) -> list[dict]:
+    """Branches with an error estimate above ``tol`` times their energy scale."""
+    return [b for b in raw
+            if b["L"].size and np.any(b["error"] > tol * np.maximum(b["scale"], 1e-300))]
 
 
 def _physical(bg: Background, tension, cornell, r0, r1, Lmax, Ls) -> dict[str, Any] | None:

@@ -18,8 +18,10 @@ from holostring.errors import ConvergenceError, InputError
 from holostring.strings.connected import ConnectedFamily, EndKind
 from holostring.strings.schemes import Scheme, straight_pair_energy
 
-#: Gauss points per panel for the two resolutions (error estimate = difference).
-M_LO, M_HI = 9, 12
+#: Gauss points per panel for the two resolutions (error estimate = difference), finest last:
+#: compute_potential moves to the next pair when an error estimate is above the tolerance.
+RESOLUTIONS = ((9, 12), (12, 16), (16, 24))
+M_LO, M_HI = RESOLUTIONS[0]
 TABLE_POINTS = 240
 
 
@@ -43,16 +45,18 @@ class Piece:
 class Solver:
     """The connected family of one background, tabulated, with root finding in L (internal)."""
 
-    def __init__(self, fam: ConnectedFamily, L_lo: float, L_hi: float) -> None:
+    def __init__(self, fam: ConnectedFamily, L_lo: float, L_hi: float, m_lo: int = M_LO,
+                 m_hi: int = M_HI) -> None:
         self.fam = fam
+        self.m_lo, self.m_hi = int(m_lo), int(m_hi)
         self.p_lo, self.p_hi = self._p_limits(L_lo, L_hi)
         p = np.linspace(self.p_lo, self.p_hi, TABLE_POINTS)
-        r = fam.evaluate(p, M_HI)
+        r = fam.evaluate(p, self.m_hi)
         self.p_tab, self.L_tab, self.W_tab, self.F_tab = p, r["L"], r["W"], r["Fstar"]
         self.pieces = self._pieces()
 
     def L(self, p: np.ndarray) -> np.ndarray:
-        return self.fam.evaluate(np.atleast_1d(p), M_HI)["L"]
+        return self.fam.evaluate(np.atleast_1d(p), self.m_hi)["L"]
 
     def _p_limits(self, L_lo: float, L_hi: float) -> tuple[float, float]:
         fam = self.fam
@@ -202,8 +206,8 @@ def build_branches(solver: Solver, grid: np.ndarray, g: float, offset: float,
         T = grid[sel]
         if T.size:
             p = solver.solve(piece, T)
-            r_hi = fam.evaluate(p, M_HI)
-            r_lo = fam.evaluate(p, M_LO)
+            r_hi = fam.evaluate(p, solver.m_hi)
+            r_lo = fam.evaluate(p, solver.m_lo)
             V = g * (r_hi["W"] + r_hi["Fstar"] * T - offset)
             err = g * (np.abs(r_hi["W"] - r_lo["W"]) + offset_err)
             scale = g * np.maximum.reduce([np.abs(r_hi["W"]), r_hi["Fstar"] * T, np.abs(V / g)])
@@ -217,7 +221,7 @@ def build_branches(solver: Solver, grid: np.ndarray, g: float, offset: float,
                     "L_range": piece.L_range, "piece": piece, "label": label})
     if fam.end == EndKind.WALL:
         p_end = np.array([solver.p_hi])
-        r_hi, r_lo = fam.evaluate(p_end, M_HI), fam.evaluate(p_end, M_LO)
+        r_hi, r_lo = fam.evaluate(p_end, solver.m_hi), fam.evaluate(p_end, solver.m_lo)
         L0, F0 = float(r_hi["L"][0]), float(r_hi["Fstar"][0])
         E0 = g * (float(r_hi["W"][0]) + F0 * L0 - offset)
         e0 = g * (abs(float(r_hi["W"][0] - r_lo["W"][0])) + offset_err)

@@ -24,12 +24,15 @@ class StringBranch:
         ``connected`` (U-shaped string), ``wall`` (U-string lying along a hard wall) or
         ``disconnected`` (two straight strings to a horizon).
     stable
-        False for a connected branch with dL/dz* < 0 (an energy maximum).
+        False for a connected branch with dL/dz* < 0 (an energy maximum). A stable branch can
+        still be metastable: ``minimum`` says where it is the lowest configuration.
     L, V, zstar, error
         Separations, energies (in the result's scheme), turning points (wall: the wall; NaN for
         disconnected strings) and error estimates (difference of two resolutions).
     L_range
         The separations this branch exists for (its whole extent, not only on the grid).
+    minimum
+        Boolean per sample: whether this branch is the minimum-energy configuration there.
     """
 
     kind: str
@@ -40,6 +43,7 @@ class StringBranch:
     error: np.ndarray
     L_range: tuple[float, float]
     label: str = ""
+    minimum: np.ndarray = field(default_factory=lambda: np.zeros(0, dtype=bool))
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
@@ -52,6 +56,7 @@ class StringBranch:
             "V": _arr(self.V),
             "zstar": _arr(self.zstar),
             "error": _arr(self.error),
+            "minimum": _arr(np.asarray(self.minimum, dtype=bool)),
         }
 
 
@@ -138,6 +143,9 @@ class PotentialResult:
         Whether every estimate is below ``tol`` (relative to the local energy scale); what failed.
     physical
         The main numbers in GeV and fm when the background carries an energy unit.
+    transitions
+        ``(L_c, error)`` of every jump of the minimum-energy string between two branches
+        (multi-valued V(L): a first-order transition, V continuous with a kink).
     """
 
     L: np.ndarray
@@ -165,6 +173,7 @@ class PotentialResult:
     notes: dict[str, str] = field(default_factory=dict)
     errors: dict[str, float] = field(default_factory=dict)
     physical: dict[str, Any] | None = None
+    transitions: tuple[tuple[float, float], ...] = ()
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view (arrays as lists)."""
@@ -193,6 +202,7 @@ class PotentialResult:
             "notes": dict(self.notes),
             "errors": dict(self.errors),
             "physical": self.physical,
+            "transitions": [{"L": x, "error": e} for x, e in self.transitions],
             "branches": [b.to_dict() for b in self.branches],
             "provenance": self.provenance.to_dict(),
         }
