@@ -225,11 +225,15 @@ def compute_potential(
 
 
 def _asymptotically_ads(bg: Background) -> bool | None:
-    """The symbolic diagnosis of the UV (None when it cannot be made)."""
-    try:
-        from holostring.background.diagnostics import diagnose
+    """The UV part of diagnose(bg).asymptotically_ads (None when it cannot be made).
 
-        return bool(diagnose(bg).asymptotically_ads)
+    Only the UV limits are taken (memoised per metric structure): the full diagnosis also
+    solves for the confinement point symbolically, which can take seconds.
+    """
+    try:
+        from holostring.background.diagnostics import _uv
+
+        return bool(_uv(bg)[0])
     except Exception:  # the diagnosis is an optional annotation here, never a failure
         return None
 

@@ -32,3 +32,9 @@ def test_potential_bad_range_exits_2():
     r = runner.invoke(app, ["potential", "ads", "--range", "5:1"])
     assert r.exit_code == 2
     assert "--range" in r.output
+
+
+def test_potential_summary_flags_kappa_on_non_ads_background():
+    r = runner.invoke(app, ["potential", "d4-soliton", "--points", "20"])
+    assert r.exit_code == 0, r.output
+    assert "kappa: not meaningful" in r.output

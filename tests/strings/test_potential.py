@@ -209,3 +209,17 @@ def test_result_is_frozen_and_serialisable():
     for key in ("L", "V", "string_tension", "coulomb_coefficient", "r0", "scheme",
                 "error_estimate", "screening_length", "max_separation"):
         assert key in d
+
+
+def test_cornell_kappa_flagged_when_not_asymptotically_ads():
+    # the D4 soliton's warp grows like z^(-3/2) at the boundary, not z^-2 (Witten hep-th/9803131;
+    # common practice): there is no -kappa/L Coulomb law to fit
+    from holostring.background.diagnostics import diagnose
+
+    bg = load_background("d4-soliton")
+    assert diagnose(bg).asymptotically_ads is False
+    res = compute_potential(bg, points=20)
+    assert "not meaningful" in res.notes["coulomb_coefficient"]
+    assert "kappa" in res.message and res.converged
+    ads = compute_potential(load_background("soft-wall"), points=20)
+    assert "coulomb_coefficient" not in ads.notes
