@@ -17,7 +17,11 @@ class SchemeChoice(StrEnum):
     straight_strings = "straight-strings"
 
 
-def _parse_range(text: str | None) -> tuple[float, float] | None:
+#: separations outside [1e-12, 1e12] (model units), or spanning more than 12 decades, are refused
+L_LIMITS = (1e-12, 1e12)
+
+
+def _parse_range(text: str | None, field: str = "--range") -> tuple[float, float] | None:
     from holostring.errors import InputError
 
     if text is None:
@@ -26,9 +30,11 @@ def _parse_range(text: str | None) -> tuple[float, float] | None:
     try:
         a, b = float(lo), float(hi)
     except ValueError:
-        raise InputError("--range", f"expected LMIN:LMAX, got '{text}'") from None
+        raise InputError(field, f"expected LMIN:LMAX, got '{text}'") from None
     if not sep or not (0 < a < b) or b == float("inf"):
-        raise InputError("--range", f"need 0 < LMIN < LMAX, got '{text}'")
+        raise InputError(field, f"need 0 < LMIN < LMAX, got '{text}'")
+    if a < L_LIMITS[0] or b > L_LIMITS[1]:
+        raise InputError(field, f"separations must lie in [{L_LIMITS[0]:g}, {L_LIMITS[1]:g}] model units, got '{text}'")
     return a, b
 
 
@@ -57,7 +63,7 @@ def potential(
         raise InputError("--points", f"need at least 2 separations, got {points}")
     bg = resolve_background(background, param)
     res = compute_potential(bg, scheme=scheme.value, L_range=_parse_range(range_), points=points,
-                            fit_range=_parse_range(fit_range))
+                            fit_range=_parse_range(fit_range, "--fit-range"))
     symbolic = None
     try:
         from holostring.background.diagnostics import diagnose

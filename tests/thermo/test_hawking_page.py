@@ -180,11 +180,18 @@ def test_solitons_are_refused():
 
 
 @pytest.mark.slow
-def test_infinite_thermal_action_is_refused():
-    # the demo throat's warp is not AdS5 and grows like exp(s z^2/2): the off-shell action
-    # density e^-Phi sqrt(g)(R + 12) grows in the IR, so no finite comparison exists
+def test_infinite_thermal_action_is_refused(tmp_path):
+    # a string-frame warp exp(s z^2/2)/(z^2 sqrt(1 + k z^2)) with no dilaton is not AdS5 in the
+    # Einstein frame and grows in the IR: the off-shell action density e^-Phi sqrt(g)(R + 12)
+    # grows too, so no finite comparison exists
+    path = tmp_path / "growing.toml"
+    path.write_text(
+        '[background]\nname = "growing"\n[parameters.s]\ndefault = 1.0\nrange = "(0, inf)"\n'
+        '[parameters.k]\ndefault = 0.5\nrange = "[0, inf)"\n'
+        '[metric]\nA = "s*z^2/4 - log(1 + k*z^2)/4"\n'
+    )
     with pytest.raises(NotApplicableError, match="does not converge"):
-        compute_transition(load_background("metrics/ember-throat.toml"))
+        compute_transition(load_background(str(path)))
 
 
 def test_temperature_from_horizon_regularity():
