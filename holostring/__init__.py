@@ -41,6 +41,11 @@ _EXPORTS: dict[str, str] = {
     "calibrate": "holostring.fit.calibrate",
     "load_targets": "holostring.fit.targets",
     "analyze": "holostring.workflow",
+    "run_scan": "holostring.scan",
+    "ScanResult": "holostring.scan",
+    "thermal_family": "holostring.thermo",
+    "TransitionResult": "holostring.thermo",
+    "ScreeningResult": "holostring.thermo",
 }
 
 __all__ = ["__version__", *sorted(_EXPORTS)]

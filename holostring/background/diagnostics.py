@@ -195,6 +195,12 @@ def diagnose(bg: Background) -> Diagnostics:
 
 
 # --------------------------------------------------------------------------- UV
+def uv_behaviour(bg: Background) -> tuple[bool, float | None]:
+    """Whether ``bg`` is asymptotically AdS5 (z^2 G -> 1 for G_tt, G_xx, G_zz) and the power p in
+    G_xx ~ z^p at the boundary. Cheap after the first call on a background structure."""
+    return _uv(bg)
+
+
 def _uv(bg: Background) -> tuple[bool, float | None]:
     m = bg.metric("string")
     subs = bg.substitutions()

@@ -231,9 +231,9 @@ def _asymptotically_ads(bg: Background) -> bool | None:
     solves for the confinement point symbolically, which can take seconds.
     """
     try:
-        from holostring.background.diagnostics import _uv
+        from holostring.background.diagnostics import uv_behaviour
 
-        return bool(_uv(bg)[0])
+        return bool(uv_behaviour(bg)[0])
     except Exception:  # the diagnosis is an optional annotation here, never a failure
         return None
 
