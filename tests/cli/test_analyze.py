@@ -11,12 +11,13 @@ from holostring.cli import app
 
 runner = CliRunner()
 ROOT = Path(__file__).resolve().parents[2]
+SW = str(ROOT / "metrics" / "soft-wall.toml")
 
 
 @pytest.fixture(scope="module")
 def report(tmp_path_factory):
     out = tmp_path_factory.mktemp("rep") / "soft"
-    r = runner.invoke(app, ["analyze", "soft-wall", "--out", str(out)])
+    r = runner.invoke(app, ["analyze", SW, "--out", str(out)])
     assert r.exit_code == 0, r.output
     return out
 
@@ -34,16 +35,14 @@ def test_folder_contents(report):
 
 def test_numbers_match_the_single_commands(report):
     data = json.loads((report / "report.json").read_text())
-    inspect = json.loads(runner.invoke(app, ["inspect", "soft-wall", "--json"]).stdout)
+    inspect = json.loads(runner.invoke(app, ["inspect", SW, "--json"]).stdout)
     assert data["diagnostics"]["string_tension"] == inspect["string_tension"]
-    pot = json.loads(runner.invoke(app, ["potential", "soft-wall", "--json"]).stdout)
+    pot = json.loads(runner.invoke(app, ["potential", SW, "--json"]).stdout)
     assert data["potential"]["V"] == pot["V"] and data["potential"]["L"] == pot["L"]
     assert data["potential"]["r0"] == pot["r0"]
-    spec = json.loads(
-        runner.invoke(app, ["spectrum", "soft-wall", "--channel", "vector-meson", "--json"]).stdout
-    )
+    spec = json.loads(runner.invoke(app, ["spectrum", SW, "--channel", "vector-meson", "--json"]).stdout)
     assert data["spectra"]["vector-meson"]["masses"] == spec["masses"]
-    thermo = json.loads(runner.invoke(app, ["thermo", "soft-wall", "--json"]).stdout)
+    thermo = json.loads(runner.invoke(app, ["thermo", SW, "--json"]).stdout)
     assert data["thermo"]["critical_temperature"] == thermo["critical_temperature"]
 
 
