@@ -141,7 +141,7 @@ def _potential(res: Any, profiles: Any) -> Section:
                 f"Sommer scale {key}",
                 _pm(val, p.errors.get(key)) + extra
                 if val is not None
-                else f"no solution: {p.notes.get(key, '')}",
+                else (p.notes.get(key) or "no solution"),
             )
         )
     if p.max_separation is not None:
