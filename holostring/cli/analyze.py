@@ -6,7 +6,7 @@ import sys
 
 import typer
 
-from holostring.cli.common import BACKGROUND_HELP, PARAM_HELP, guarded, resolve_background
+from holostring.cli.common import BACKGROUND_HELP, PARAM_HELP, UNIT_HELP, guarded, resolve_background
 
 DEFAULT_EXAMPLE = "ember-throat"
 
@@ -24,6 +24,7 @@ def analyze(
     force: bool = typer.Option(False, "--force", help="Replace an existing report folder."),
     states: int = typer.Option(10, "--states", help="States per spectral channel."),
     points: int = typer.Option(200, "--points", help="Separations for V(L)."),
+    unit: str = typer.Option(None, "--unit", help=UNIT_HELP),
 ) -> None:
     """Run diagnostics, V(L), spectra, temperature (and calibration) and write a report folder.
 
@@ -40,7 +41,7 @@ def analyze(
         raise InputError("--points", f"must be between 10 and 20000, got {points}")
     check_target(out, force)  # refuse early, before any work
     spec = background if background is not None else _example()
-    bg = resolve_background(spec, param)
+    bg = resolve_background(spec, param, unit)
     ts = None
     if targets is not None:
         from holostring.fit.targets import load_targets

@@ -62,11 +62,24 @@ def parse_params(items: list[str] | None) -> dict[str, float]:
     return out
 
 
-def resolve_background(spec: str, params: list[str] | None) -> Any:
-    """Load BACKGROUND (catalogue name or file) with --param values, checked."""
+UNIT_HELP = "Read the parameters in powers of this energy unit (GeV or MeV): results in GeV and fm."
+
+
+def resolve_background(spec: str, params: list[str] | None, unit: str | None = None) -> Any:
+    """Load BACKGROUND (catalogue name or file) with --param values, checked; ``unit`` (--unit)
+    sets the energy unit the parameters are read in."""
     from holostring.background import load_background
 
-    return load_background(spec, **parse_params(params))
+    bg = load_background(spec, **parse_params(params))
+    if unit is None:
+        return bg
+    from holostring.units import gev_per_unit
+
+    try:
+        gev_per_unit(unit)
+    except InputError as err:
+        raise InputError("--unit", err.reason) from None
+    return bg.with_units(unit)
 
 
 def echo_json(data: Any) -> None:

@@ -7,7 +7,14 @@ from pathlib import Path
 
 import typer
 
-from holostring.cli.common import BACKGROUND_HELP, PARAM_HELP, echo_json, guarded, resolve_background
+from holostring.cli.common import (
+    BACKGROUND_HELP,
+    PARAM_HELP,
+    UNIT_HELP,
+    echo_json,
+    guarded,
+    resolve_background,
+)
 
 
 class SchemeChoice(StrEnum):
@@ -50,6 +57,7 @@ def potential(
                                   help="L range LMIN:LMAX of the Cornell fit (default: --range)."),
     as_json: bool = typer.Option(False, "--json", help="Print JSON instead of the summary."),
     out: Path = typer.Option(None, "--out", help="Write CSV per branch, JSON and PNG plots here."),
+    unit: str = typer.Option(None, "--unit", help=UNIT_HELP),
 ) -> None:
     """Static potential V(L): every string branch, Cornell fit, Sommer scales, screening.
 
@@ -61,7 +69,7 @@ def potential(
 
     if points < 2:
         raise InputError("--points", f"need at least 2 separations, got {points}")
-    bg = resolve_background(background, param)
+    bg = resolve_background(background, param, unit)
     res = compute_potential(bg, scheme=scheme.value, L_range=_parse_range(range_), points=points,
                             fit_range=_parse_range(fit_range, "--fit-range"))
     symbolic = None

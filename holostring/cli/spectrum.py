@@ -44,15 +44,7 @@ def spectrum(
 
     if states < 1:
         raise InputError("--states", f"must be at least 1, got {states}")
-    bg = resolve_background(background, param)
-    if unit is not None:
-        from holostring.units import gev_per_unit
-
-        try:
-            gev_per_unit(unit)
-        except InputError as err:
-            raise InputError("--unit", err.reason) from None
-        bg = bg.with_units(unit)
+    bg = resolve_background(background, param, unit)
     from holostring.spectra import fit_regge, solve_spectrum
 
     result = solve_spectrum(bg, channel, states=states,

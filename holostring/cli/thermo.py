@@ -43,15 +43,7 @@ def thermo(
         raise InputError("--points", f"need at least 2 temperatures, got {points}")
     if not t_max > 1.0:
         raise InputError("--t-max", f"must be larger than 1, got {t_max:g}")
-    bg = resolve_background(background, param)
-    if unit is not None:
-        from holostring.units import gev_per_unit
-
-        try:
-            gev_per_unit(unit)
-        except InputError as err:
-            raise InputError("--unit", err.reason) from None
-        bg = bg.with_units(unit)
+    bg = resolve_background(background, param, unit)
     family = thermal_family(bg)
     transition = compute_transition(family)
     scr = None

@@ -26,7 +26,7 @@ def summary_lines(res: Any, symbolic: Any = None) -> list[str]:
         if value is None:
             lines.append(f"  {name:<26} —  {extra}")
             return
-        e = "" if err is None else f" ± {err:.1e}"
+        e = "" if err is None else (f" ± {err:.1e}" if err > 0 else " ± <1e-16")
         lines.append(f"  {name:<26} {fmt(value, 12)}{e}  {extra}".rstrip())
 
     sym = None if symbolic is None else getattr(symbolic, "string_tension", None)
