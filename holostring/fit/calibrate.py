@@ -16,7 +16,7 @@ from typing import Any
 import numpy as np
 
 from holostring.errors import ConvergenceError, HolostringError, InputError
-from holostring.fit.observables import Observable, evaluate
+from holostring.fit.observables import GRADIENT_METHODS, Observable, evaluate, gradient
 from holostring.fit.targets import FreeParameter, TargetSet, unit_factor
 from holostring.provenance import Provenance
 from holostring.units import HBARC_GEV_FM
@@ -116,9 +116,11 @@ def display_unit(dimension: int, energy_unit: str = "GeV") -> tuple[str, float]:
 class _Model:
     """Maps the fit variables u to observables; counts evaluations."""
 
-    def __init__(self, bg: Any, free: tuple[FreeParameter, ...]) -> None:
+    def __init__(self, bg: Any, free: tuple[FreeParameter, ...], exact: bool = True) -> None:
         self.bg = bg
         self.free = free
+        self.exact = exact
+        self.methods: dict[str, str] = {}
         self.log = [bg.parameter(f.name).lower >= 0 for f in free]
         self.evaluations = 0
 
@@ -141,7 +143,32 @@ class _Model:
         return vals, errs
 
     def gradient(self, u: np.ndarray, obs: list[Observable], h: float, richardson: bool) -> np.ndarray:
-        """d observables / d u, central differences (with Richardson extrapolation if asked)."""
+        """d observables / d u: exact formulas where the observable has them (envelope theorem,
+        Hellmann-Feynman), central differences (Richardson-extrapolated if asked) otherwise."""
+        rows: list[np.ndarray | None] = [None] * len(obs)
+        if self.exact:
+            params = self.to_params(u)
+            bg = self.bg.with_params(**params)
+            names = [f.name for f in self.free]
+            dpdu = np.array([params[n] if lg else 1.0 for n, lg in zip(names, self.log, strict=True)])
+            memo: dict[str, Any] = {}
+            for i, o in enumerate(obs):
+                d = gradient(bg, o, names, memo)
+                if d is not None:
+                    rows[i] = np.asarray(d, dtype=float) * dpdu
+                    self.methods[o.spec] = GRADIENT_METHODS[o.kind]
+        rest = [i for i, r in enumerate(rows) if r is None]
+        if rest:
+            sub = [obs[i] for i in rest]
+            fd = self._difference(u, sub, h, richardson)
+            for k, i in enumerate(rest):
+                rows[i] = fd[k]
+                self.methods[obs[i].spec] = "central differences" + (
+                    " with Richardson extrapolation" if richardson else ""
+                )
+        return np.array(rows)
+
+    def _difference(self, u: np.ndarray, obs: list[Observable], h: float, richardson: bool) -> np.ndarray:
         cols = []
         for j in range(len(u)):
 
@@ -158,7 +185,12 @@ class _Model:
 
 
 def calibrate(
-    background: Any, targets: TargetSet, *, max_evaluations: int = 200, strict: bool = False
+    background: Any,
+    targets: TargetSet,
+    *,
+    max_evaluations: int = 200,
+    exact_gradients: bool = True,
+    strict: bool = False,
 ) -> CalibrationResult:
     """Fit the free parameters of ``background`` to ``targets``.
 
@@ -170,6 +202,9 @@ def calibrate(
         A :class:`~holostring.fit.targets.TargetSet` (see :func:`~holostring.fit.targets.load_targets`).
     max_evaluations
         Budget of residual evaluations for the optimiser.
+    exact_gradients
+        Use exact derivative formulas where an observable has them (string tension: envelope
+        theorem; masses: Hellmann-Feynman); ``False`` forces finite differences everywhere.
     strict
         Raise :class:`~holostring.errors.ConvergenceError` (carrying the partial result) when the
         optimiser does not converge, instead of returning ``converged=False``.
@@ -196,7 +231,7 @@ def calibrate(
         bg.parameter(f.name)  # unknown names fail here, naming the parameter
         if f.name in targets.fixed:
             raise InputError(f"parameter {f.name}", "is both free and fixed")
-    model = _Model(bg, targets.free)
+    model = _Model(bg, targets.free, exact_gradients)
     obs = [t.observable for t in targets.targets]
     t_val = np.array([t.value * t.factor for t in targets.targets])
     t_unc = np.array([t.uncertainty * t.factor for t in targets.targets])
@@ -279,6 +314,7 @@ def calibrate(
                 "targets": targets.origin,
                 "method": f"least_squares/{method}",
                 "energy_unit": targets.energy_unit,
+                "gradients": dict(model.methods),
             },
         ),
     )

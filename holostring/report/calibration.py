@@ -30,6 +30,9 @@ def calibration_tables(res: Any) -> list[Any]:
             if i < j
         ]
         fitted.caption += "; correlations " + ", ".join(pairs)
+    methods = res.provenance.settings.get("gradients") or {}
+    if methods:
+        fitted.caption += "; gradients: " + "; ".join(f"{k}: {v.split(':')[0]}" for k, v in methods.items())
     pred = Table(title="predictions of the calibrated model", title_justify="left")
     pred.add_column("observable", overflow="fold")
     for col in ("model", "± propagated", "target", "pull", "unit"):

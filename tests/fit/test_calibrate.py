@@ -200,3 +200,32 @@ def test_two_parameter_string_calibration_reproduces_targets():
     pot = compute_potential(load_background("soft-wall", c=c, g=g))
     assert pot.r0 * HBARC_GEV_FM == pytest.approx(0.5, rel=1e-7)
     assert -1 < res.correlation[0, 1] < 1
+
+
+def test_exact_gradients_match_finite_differences():
+    # sigma = g e c/2 (Andreev-Zakharov hep-ph/0604204): d sigma/dc = g e/2, d sigma/dg = e c/2;
+    # vector mesons m_n^2 = 4c(n+1) (KKSS hep-ph/0602229): d m_n^2/dc = 4(n+1)
+    from holostring.fit.observables import gradient
+
+    bg = load_background("soft-wall", c=0.7, g=1.3)
+    d = gradient(bg, parse_observable("string_tension"), ["c", "g"])
+    assert d == pytest.approx([1.3 * math.e / 2, 0.7 * math.e / 2], rel=1e-12)
+    d = gradient(bg, parse_observable("mass_squared:vector-meson:2"), ["c", "g"])
+    assert d == pytest.approx([12.0, 0.0], abs=1e-8)
+    # hard wall sigma = g/z0^2 at the wall (the wall moves with z0): d sigma/dz0 = -2 g/z0^3
+    hw = load_background("hard-wall", z0=2.0, g=1.5)
+    assert gradient(hw, parse_observable("string_tension"), ["z0"]) == pytest.approx(
+        [-2 * 1.5 / 8], rel=1e-12
+    )
+    # r0 has no exact formula here: finite differences are used
+    assert gradient(bg, parse_observable("r0"), ["c"]) is None
+
+
+def test_calibration_records_how_gradients_were_taken():
+    t = targets("mass:vector-meson:0", 0.775, 0.001, "GeV")
+    exact = calibrate(load_background("soft-wall"), t)
+    fd = calibrate(load_background("soft-wall"), t, exact_gradients=False)
+    assert "Hellmann-Feynman" in exact.provenance.settings["gradients"]["mass:vector-meson:0"]
+    assert "differences" in fd.provenance.settings["gradients"]["mass:vector-meson:0"]
+    assert exact.values["c"] == pytest.approx(fd.values["c"], rel=1e-10)
+    assert exact.uncertainties["c"] == pytest.approx(fd.uncertainties["c"], rel=1e-6)
