@@ -46,8 +46,11 @@ def naive(zstars: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         for zs in zstars:
             Fs = F(zs)
             L = 2 * integrate.quad(lambda z, Fs=Fs: Fs * inv_root(z, Fs), 0, zs, limit=200)[0]
-            E = 2 * integrate.quad(lambda z, Fs=Fs: F(z) ** 2 * inv_root(z, Fs) - 1 / z**2,
-                                   0, zs, limit=200)[0] - 2 / zs
+            E = (
+                2
+                * integrate.quad(lambda z, Fs=Fs: F(z) ** 2 * inv_root(z, Fs) - 1 / z**2, 0, zs, limit=200)[0]
+                - 2 / zs
+            )
             Ls.append(L)
             Es.append(E)
     return np.array(Ls), np.array(Es)
@@ -126,11 +129,15 @@ def main() -> None:
 
     print(f"soft wall c={C}, {N} turning points z* in [{zs[0]:.4g}, z_m - {ys[-1]:.2e}]")
     print(f"  reference: mpmath 30 digits on {len(sub)} of them; times: best of 5 (ours), 3 (naive)")
-    print(f"  naive quad : {t_naive:8.4f} s   max rel error L {rel(L0[sub], ref[:, 0]):.2e}, "
-          f"E {rel(E0[sub], ref[:, 1], scale):.2e}")
-    print(f"  holostring : {t_ours:8.4f} s   max rel error L {rel(L1[sub], ref[:, 0]):.2e}, "
-          f"E {rel(E1[sub], ref[:, 1], scale):.2e}   (own relative error estimate max {np.max(err):.1e}, "
-          f"Gauss points per panel {M_HI} and {M_LO})")
+    print(
+        f"  naive quad : {t_naive:8.4f} s   max rel error L {rel(L0[sub], ref[:, 0]):.2e}, "
+        f"E {rel(E0[sub], ref[:, 1], scale):.2e}"
+    )
+    print(
+        f"  holostring : {t_ours:8.4f} s   max rel error L {rel(L1[sub], ref[:, 0]):.2e}, "
+        f"E {rel(E1[sub], ref[:, 1], scale):.2e}   (own relative error estimate max {np.max(err):.1e}, "
+        f"Gauss points per panel {M_HI} and {M_LO})"
+    )
     print(f"  time ratio naive/ours: {t_naive / t_ours:.0f}x")
 
 

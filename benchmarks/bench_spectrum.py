@@ -37,6 +37,7 @@ REPEAT = 10  # timed calls of ours; the minimum is reported
 # ----------------------------------------------------------------------------- baseline
 def shoot_hard_wall(lam: float) -> float:
     """phi(z0 = 1) for -(z^-3 phi')' = lam z^-3 phi with phi ~ z^4 (1 - lam z^2/12) at EPS."""
+
     def rhs(z, y):
         return [y[1], 3.0 * y[1] / z - lam * y[0]]
 
@@ -48,6 +49,7 @@ def shoot_hard_wall(lam: float) -> float:
 
 def shoot_soft_wall(lam: float, z_max: float = 12.0) -> float:
     """psi(z_max) for -psi'' + (15/(4z^2) + z^2 + 2) psi = lam psi with psi ~ z^(5/2) at EPS."""
+
     def rhs(z, y):
         return [y[1], (15 / (4 * z * z) + z * z + 2 - lam) * y[0]]
 
@@ -102,11 +104,12 @@ def main() -> None:
         err_ours = np.max(np.abs(ours.masses_squared / exact - 1))
         note = "" if base.size == STATES else f"  (shooting found only {base.size} states)"
         print(f"{name:<12}{'shooting':<12}{t_base:>12.3f}{err_base:>14.2e}{'':>10}{note}")
-        print(f"{'':<12}{'spectral':<12}{t_ours:>12.5f}{err_ours:>14.2e}"
-              f"{t_base / t_ours:>9.0f}x")
-        print(f"{'':<12}{'':<12}{'':>12}  converged={ours.converged}, nodes "
-              f"{ours.resolution[0]}/{ours.resolution[1]}, estimate max "
-              f"{np.max(ours.error_estimate / exact):.1e}")
+        print(f"{'':<12}{'spectral':<12}{t_ours:>12.5f}{err_ours:>14.2e}{t_base / t_ours:>9.0f}x")
+        print(
+            f"{'':<12}{'':<12}{'':>12}  converged={ours.converged}, nodes "
+            f"{ours.resolution[0]}/{ours.resolution[1]}, estimate max "
+            f"{np.max(ours.error_estimate / exact):.1e}"
+        )
 
 
 if __name__ == "__main__":

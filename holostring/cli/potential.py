@@ -41,7 +41,9 @@ def _parse_range(text: str | None, field: str = "--range") -> tuple[float, float
     if not sep or not (0 < a < b) or b == float("inf"):
         raise InputError(field, f"need 0 < LMIN < LMAX, got '{text}'")
     if a < L_LIMITS[0] or b > L_LIMITS[1]:
-        raise InputError(field, f"separations must lie in [{L_LIMITS[0]:g}, {L_LIMITS[1]:g}] model units, got '{text}'")
+        raise InputError(
+            field, f"separations must lie in [{L_LIMITS[0]:g}, {L_LIMITS[1]:g}] model units, got '{text}'"
+        )
     return a, b
 
 
@@ -51,10 +53,12 @@ def potential(
     param: list[str] = typer.Option(None, "--param", "-p", help=PARAM_HELP),
     range_: str = typer.Option(None, "--range", help="Separations LMIN:LMAX (model units)."),
     points: int = typer.Option(200, "--points", help="Number of separations on the grid."),
-    scheme: SchemeChoice = typer.Option(SchemeChoice.uv_pole, "--scheme",
-                                        help="Regularisation scheme of the energy."),
-    fit_range: str = typer.Option(None, "--fit-range",
-                                  help="L range LMIN:LMAX of the Cornell fit (default: --range)."),
+    scheme: SchemeChoice = typer.Option(
+        SchemeChoice.uv_pole, "--scheme", help="Regularisation scheme of the energy."
+    ),
+    fit_range: str = typer.Option(
+        None, "--fit-range", help="L range LMIN:LMAX of the Cornell fit (default: --range)."
+    ),
     as_json: bool = typer.Option(False, "--json", help="Print JSON instead of the summary."),
     out: Path = typer.Option(None, "--out", help="Write CSV per branch, JSON and PNG plots here."),
     unit: str = typer.Option(None, "--unit", help=UNIT_HELP),
@@ -70,8 +74,13 @@ def potential(
     if points < 2:
         raise InputError("--points", f"need at least 2 separations, got {points}")
     bg = resolve_background(background, param, unit)
-    res = compute_potential(bg, scheme=scheme.value, L_range=_parse_range(range_), points=points,
-                            fit_range=_parse_range(fit_range, "--fit-range"))
+    res = compute_potential(
+        bg,
+        scheme=scheme.value,
+        L_range=_parse_range(range_),
+        points=points,
+        fit_range=_parse_range(fit_range, "--fit-range"),
+    )
     symbolic = None
     try:
         from holostring.background.diagnostics import diagnose
@@ -94,8 +103,10 @@ def potential(
     if as_json:
         data = res.to_dict()
         if symbolic is not None:
-            data["symbolic"] = {"string_tension": symbolic.string_tension,
-                                "coulomb_coefficient": symbolic.coulomb_coefficient}
+            data["symbolic"] = {
+                "string_tension": symbolic.string_tension,
+                "coulomb_coefficient": symbolic.coulomb_coefficient,
+            }
         echo_json(data)
         return
     for line in summary_lines(res, symbolic):

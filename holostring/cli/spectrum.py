@@ -22,7 +22,9 @@ def spectrum(
     background: str = typer.Argument(..., help=BACKGROUND_HELP),
     param: list[str] = typer.Option(None, "--param", "-p", help=PARAM_HELP),
     channel: str = typer.Option(
-        "scalar-glueball", "--channel", "-c",
+        "scalar-glueball",
+        "--channel",
+        "-c",
         help="scalar-glueball, tensor-glueball, vector-meson, or a field declared in the file.",
     ),
     states: int = typer.Option(10, "--states", "-n", help="Number of states n = 0..N-1."),
@@ -47,8 +49,7 @@ def spectrum(
     bg = resolve_background(background, param, unit)
     from holostring.spectra import fit_regge, solve_spectrum
 
-    result = solve_spectrum(bg, channel, states=states,
-                            boundary=None if boundary is None else boundary.value)
+    result = solve_spectrum(bg, channel, states=states, boundary=None if boundary is None else boundary.value)
     fit = fit_regge(result) if result.states >= 2 else None
     from holostring.report.spectrum import print_summary, spectrum_data, write_outputs
 

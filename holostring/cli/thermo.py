@@ -53,8 +53,7 @@ def thermo(
             zh0 = 0.9 * family.wall if math.isfinite(family.wall) else 2.0 * family.scale
             t0 = float(family.temperature(zh0))
         try:
-            scr = compute_screening(family, transition=transition, t_range=(t0, t_max * t0),
-                                    points=points)
+            scr = compute_screening(family, transition=transition, t_range=(t0, t_max * t0), points=points)
         except NotApplicableError as err:
             typer.echo(f"note: no screening scan ({err})", err=True)
     from holostring.report.thermo import print_summary, thermo_data, write_outputs

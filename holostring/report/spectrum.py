@@ -42,8 +42,10 @@ def spectrum_data(result: Any, fit: Any | None = None) -> dict[str, Any]:
 def _caption(result: Any) -> str:
     params = ", ".join(f"{k}={v:g}" for k, v in result.provenance.parameters.items())
     lo, hi = result.resolution
-    return (f"{result.provenance.background} ({params}); channel {result.channel}; "
-            f"{result.boundaries['statement']}; Gauss-Jacobi nodes {lo}/{hi}")
+    return (
+        f"{result.provenance.background} ({params}); channel {result.channel}; "
+        f"{result.boundaries['statement']}; Gauss-Jacobi nodes {lo}/{hi}"
+    )
 
 
 def print_summary(result: Any, fit: Any | None = None) -> None:
@@ -55,9 +57,11 @@ def print_summary(result: Any, fit: Any | None = None) -> None:
     out = console()
     info = result.channel_info
     label = f" ({info['label']})" if info.get("label") else ""
-    out.print(f"[bold]{result.provenance.background}[/bold]: {result.channel}{label}, spin "
-              f"{info['spin']}, M5^2 = {info['mass_squared']:g}, coupling exp(-"
-              f"{info['dilaton_coupling']:g} Phi), {info['frame']} frame")
+    out.print(
+        f"[bold]{result.provenance.background}[/bold]: {result.channel}{label}, spin "
+        f"{info['spin']}, M5^2 = {info['mass_squared']:g}, coupling exp(-"
+        f"{info['dilaton_coupling']:g} Phi), {info['frame']} frame"
+    )
     out.print(f"boundary: {result.boundaries['statement']}")
     unit = result.energy_unit
     mu = unit or "model units"
@@ -70,17 +74,23 @@ def print_summary(result: Any, fit: Any | None = None) -> None:
     if gev is not None and unit != "GeV":
         table.add_column("m [GeV]", justify="right")
     for n in range(result.states):
-        cells = [str(n), fmt(float(result.masses_squared[n]), 13),
-                 fmt(float(result.masses[n]), 13), f"{float(result.error_estimate[n]):.1e}"]
+        cells = [
+            str(n),
+            fmt(float(result.masses_squared[n]), 13),
+            fmt(float(result.masses[n]), 13),
+            f"{float(result.error_estimate[n]):.1e}",
+        ]
         if gev is not None and unit != "GeV":
             cells.append(fmt(float(gev[n]), 8))
         table.add_row(*cells)
     out.print(table)
     if fit is not None:
-        out.print(f"Regge fit m_n^2 = a n + b (n = {fit.n[0]}..{fit.n[-1]}): "
-                  f"a = {fit.slope:.10g} ± {fit.slope_error:.1e}, "
-                  f"b = {fit.intercept:.10g} ± {fit.intercept_error:.1e}"
-                  + (_scaling_note(fit) if fit.scaled else ""))
+        out.print(
+            f"Regge fit m_n^2 = a n + b (n = {fit.n[0]}..{fit.n[-1]}): "
+            f"a = {fit.slope:.10g} ± {fit.slope_error:.1e}, "
+            f"b = {fit.intercept:.10g} ± {fit.intercept_error:.1e}"
+            + (_scaling_note(fit) if fit.scaled else "")
+        )
     status = "converged" if result.converged else "NOT CONVERGED"
     out.print(f"{status}: {result.message}")
     out.print(f"[dim]{limits_statement()}[/dim]")
@@ -129,8 +139,7 @@ def plot_potential(result: Any, ax: Any = None, levels: int = 8) -> Any:
         ax.hlines(lam[i], zs.min(), zs.max(), color=color, lw=0.9, ls="--")
         psi = result.modes[i]
         amp = np.nanmax(np.abs(psi)) or 1.0
-        ax.plot(z, lam[i] + scale * psi / amp, color=color, lw=1.2,
-                label=f"n={i}: $m^2$={lam[i]:.6g}")
+        ax.plot(z, lam[i] + scale * psi / amp, color=color, lw=1.2, label=f"n={i}: $m^2$={lam[i]:.6g}")
     ax.set_xlim(0.0, xmax)
     ax.set_ylim(ymin, ymax)
     _, m2u, zu = _units(result)
@@ -177,14 +186,26 @@ def plot_regge(result: Any, fit: Any | None = None, ax: Any = None) -> Any:
     if ax is None:
         _, ax = plt.subplots()
     n = np.arange(result.states)
-    ax.errorbar(n, result.masses_squared, yerr=result.error_estimate, fmt="o", ms=4.5,
-                color=COLORS[0], label=f"{result.channel} (error bars: N vs 2N)")
+    ax.errorbar(
+        n,
+        result.masses_squared,
+        yerr=result.error_estimate,
+        fmt="o",
+        ms=4.5,
+        color=COLORS[0],
+        label=f"{result.channel} (error bars: N vs 2N)",
+    )
     if fit is not None:
         nn = np.linspace(0, max(result.states - 1, 1), 50)
-        ax.plot(nn, fit.slope * nn + fit.intercept, color=COLORS[1], lw=1.2,
-                label=f"fit: a = {fit.slope:.6g} ± {fit.slope_error:.1e}, "
-                      f"b = {fit.intercept:.6g} ± {fit.intercept_error:.1e}"
-                      + ("\n" + _scaling_note(fit).strip() if fit.scaled else ""))
+        ax.plot(
+            nn,
+            fit.slope * nn + fit.intercept,
+            color=COLORS[1],
+            lw=1.2,
+            label=f"fit: a = {fit.slope:.6g} ± {fit.slope_error:.1e}, "
+            f"b = {fit.intercept:.6g} ± {fit.intercept_error:.1e}"
+            + ("\n" + _scaling_note(fit).strip() if fit.scaled else ""),
+        )
     _, m2u, _ = _units(result)
     ax.set_xlabel("n (radial excitation)")
     ax.set_ylabel(f"$m_n^2$ [{m2u}]")
@@ -206,22 +227,38 @@ def write_outputs(out: str | Path, result: Any, fit: Any | None = None) -> list[
         header.append("mass_gev")
     rows = []
     for n in range(result.states):
-        row = [n, float(result.masses_squared[n]), float(result.masses[n]),
-               float(result.error_estimate[n]), float(result.mass_error[n])]
+        row = [
+            n,
+            float(result.masses_squared[n]),
+            float(result.masses[n]),
+            float(result.error_estimate[n]),
+            float(result.mass_error[n]),
+        ]
         if gev is not None:
             row.append(float(gev[n]))
         rows.append(row)
-    comments = [_caption(result), f"converged={result.converged}: {result.message}",
-                f"units: {result.energy_unit or 'model units (the background scale)'}"]
+    comments = [
+        _caption(result),
+        f"converged={result.converged}: {result.message}",
+        f"units: {result.energy_unit or 'model units (the background scale)'}",
+    ]
     paths.append(write_csv(d / "spectrum.csv", header, rows, comments))
     mode_header = ["z", "xi", "U"] + [f"psi_{n}" for n in range(result.states)]
     mode_rows = np.column_stack([result.z, result.xi, result.potential, result.modes.T])
-    paths.append(write_csv(d / "modes.csv", mode_header, mode_rows.tolist(),
-                           [_caption(result), "psi_n normalised: int psi_n^2 d xi = 1"]))
+    paths.append(
+        write_csv(
+            d / "modes.csv",
+            mode_header,
+            mode_rows.tolist(),
+            [_caption(result), "psi_n normalised: int psi_n^2 d xi = 1"],
+        )
+    )
     plt = pyplot()
-    for name, draw in (("potential.png", lambda ax: plot_potential(result, ax)),
-                       ("modes.png", lambda ax: plot_modes(result, ax)),
-                       ("regge.png", lambda ax: plot_regge(result, fit, ax))):
+    for name, draw in (
+        ("potential.png", lambda ax: plot_potential(result, ax)),
+        ("modes.png", lambda ax: plot_modes(result, ax)),
+        ("regge.png", lambda ax: plot_regge(result, fit, ax)),
+    ):
         fig, ax = plt.subplots(figsize=(7.0, 4.6))
         draw(ax)
         caption(fig, _caption(result))

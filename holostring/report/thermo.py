@@ -45,13 +45,22 @@ def thermo_data(transition: Any, screening: Any | None) -> dict[str, Any]:
         "regularisation": transition.regularisation,
         "assumptions": list(transition.assumptions),
         "free_energy_normalisation": "2 kappa^2 (F_black_brane - F_thermal) / (L^3 V_3); "
-                                     "times N^2/(8 pi^2) with the AdS5/CFT normalisation",
+        "times N^2/(8 pi^2) with the AdS5/CFT normalisation",
         "free_energy": [
-            {"temperature": float(t), "horizon": float(h), "free_energy_difference": float(f),
-             "error": float(e), "dominant": "black brane" if f < 0 else "thermal"}
-            for t, h, f, e in zip(transition.temperatures, transition.horizons,
-                                  transition.free_energy_difference, transition.free_energy_error,
-                                  strict=True)
+            {
+                "temperature": float(t),
+                "horizon": float(h),
+                "free_energy_difference": float(f),
+                "error": float(e),
+                "dominant": "black brane" if f < 0 else "thermal",
+            }
+            for t, h, f, e in zip(
+                transition.temperatures,
+                transition.horizons,
+                transition.free_energy_difference,
+                transition.free_energy_error,
+                strict=True,
+            )
         ],
         "converged": transition.converged,
         "message": transition.message,
@@ -115,8 +124,9 @@ def print_summary(transition: Any, screening: Any | None) -> None:
     idx = np.unique(np.linspace(0, len(transition.temperatures) - 1, 9).round().astype(int))
     for i in idx:
         t = float(transition.temperatures[i])
-        table.add_row(fmt(t, 6), fmt(t / tc, 4) if tc else "—",
-                      fmt(float(transition.free_energy_difference[i]), 6))
+        table.add_row(
+            fmt(t, 6), fmt(t / tc, 4) if tc else "—", fmt(float(transition.free_energy_difference[i]), 6)
+        )
     out.print(table)
     if screening is not None:
         st = Table(title="screening in the black-brane phase")
@@ -138,26 +148,34 @@ def print_summary(transition: Any, screening: Any | None) -> None:
             if unit:
                 cells = [fmt(_mev(t, unit), 5), fmt(_fm(lm, unit), 5), fmt(_fm(ls, unit), 5)]
             else:
-                cells = [fmt(t, 6), fmt(lm if math.isfinite(lm) else None, 7),
-                         fmt(ls if math.isfinite(ls) else None, 7)]
-            cells += [fmt(lm * t if math.isfinite(lm) else None, 7),
-                      fmt(ls * t if math.isfinite(ls) else None, 7),
-                      f"{float(screening.errors[i]):.0e}",
-                      "yes" if screening.converged_points[i] else "NO"]
+                cells = [
+                    fmt(t, 6),
+                    fmt(lm if math.isfinite(lm) else None, 7),
+                    fmt(ls if math.isfinite(ls) else None, 7),
+                ]
+            cells += [
+                fmt(lm * t if math.isfinite(lm) else None, 7),
+                fmt(ls * t if math.isfinite(ls) else None, 7),
+                f"{float(screening.errors[i]):.0e}",
+                "yes" if screening.converged_points[i] else "NO",
+            ]
             st.add_row(*cells)
         out.print(st)
         s0 = screening.string_tension_below
         if s0:
             su = f" {unit}^2 (sqrt: {_mev(math.sqrt(s0), unit):.1f} MeV)" if unit else ""
             if screening.critical_temperature is None:
-                out.print(f"zero-temperature string tension: {fmt(s0, 8)}{su} (no transition "
-                          "found, so no confined range of T)")
+                out.print(
+                    f"zero-temperature string tension: {fmt(s0, 8)}{su} (no transition "
+                    "found, so no confined range of T)"
+                )
             else:
-                out.print(f"string tension below T_c: {fmt(s0, 8)}{su}, T-independent (the "
-                          "thermal geometry does not change with T)")
+                out.print(
+                    f"string tension below T_c: {fmt(s0, 8)}{su}, T-independent (the "
+                    "thermal geometry does not change with T)"
+                )
         else:
-            out.print("string tension below T_c: none (the zero-temperature background does not "
-                      "confine)")
+            out.print("string tension below T_c: none (the zero-temperature background does not confine)")
         if screening.message != "ok":
             out.print(f"note: {screening.message}")
     out.print(f"[dim]{limits_statement()}[/dim]")
@@ -176,15 +194,16 @@ def plot_free_energy(transition: Any, ax: Any = None) -> Any:
     y = np.asarray(transition.free_energy_difference) / T**4
     x = T / tc if tc else T
     ax.axhline(0.0, color="black", lw=0.8)
-    ax.axhline(-np.pi**4, color="#888888", lw=0.9, ls=":")
+    ax.axhline(-(np.pi**4), color="#888888", lw=0.9, ls=":")
     ax.plot(x, y, color=COLORS[0], lw=1.9)
     ax.set_ylabel(r"$2\kappa^2\,(F_{\rm black\ brane} - F_{\rm thermal}) \,/\, (L^3\, T^4)$")
-    ylo, yhi = min(np.nanmin(y), -np.pi**4), max(np.nanmax(y), 0.0)
+    ylo, yhi = min(np.nanmin(y), -(np.pi**4)), max(np.nanmax(y), 0.0)
     pad = 0.08 * (yhi - ylo or 1.0)
     ax.set_ylim(ylo - pad, yhi + pad)
     ax.set_xlim(x[0], x[-1])
-    ax.text(x[-1], -np.pi**4, r"conformal plasma $-\pi^4$ ", fontsize=8.5, color="#666666",
-            ha="right", va="top")
+    ax.text(
+        x[-1], -(np.pi**4), r"conformal plasma $-\pi^4$ ", fontsize=8.5, color="#666666", ha="right", va="top"
+    )
     if tc:
         ax.set_xlabel(r"$T / T_c$")
         ax.axvline(1.0, color="#666666", lw=0.8, ls="--")
@@ -194,20 +213,49 @@ def plot_free_energy(transition: Any, ax: Any = None) -> Any:
         mev = _mev(tc, unit)
         if mev is not None:
             label += f"\n= {mev:.1f} MeV"
-        ax.text(1.0, 0.62, " " + label.replace("\n", "\n "), transform=ax.get_xaxis_transform(),
-                fontsize=9, va="center", ha="left")
-        ax.text(0.02, 0.30, "thermal geometry\ndominates\n(confined)", transform=ax.transAxes,
-                fontsize=8.5, color=COLORS[1], va="bottom")
-        ax.text(0.98, 0.96, "black brane dominates\n(deconfined)", transform=ax.transAxes,
-                fontsize=8.5, color=COLORS[0], ha="right", va="top")
+        ax.text(
+            1.0,
+            0.62,
+            " " + label.replace("\n", "\n "),
+            transform=ax.get_xaxis_transform(),
+            fontsize=9,
+            va="center",
+            ha="left",
+        )
+        ax.text(
+            0.02,
+            0.30,
+            "thermal geometry\ndominates\n(confined)",
+            transform=ax.transAxes,
+            fontsize=8.5,
+            color=COLORS[1],
+            va="bottom",
+        )
+        ax.text(
+            0.98,
+            0.96,
+            "black brane dominates\n(deconfined)",
+            transform=ax.transAxes,
+            fontsize=8.5,
+            color=COLORS[0],
+            ha="right",
+            va="top",
+        )
         if unit:
             k = tc * _mev(1.0, unit)
             top = ax.secondary_xaxis("top", functions=(lambda v: v * k, lambda v: v / k))
             top.set_xlabel("T [MeV]")
     else:
         ax.set_xlabel(f"T [{unit or 'model units'}]")
-        ax.text(0.98, 0.5, transition.message.split(";")[0].replace(": ", ":\n"),
-                transform=ax.transAxes, fontsize=8.5, ha="right", va="center")
+        ax.text(
+            0.98,
+            0.5,
+            transition.message.split(";")[0].replace(": ", ":\n"),
+            transform=ax.transAxes,
+            fontsize=8.5,
+            ha="right",
+            va="center",
+        )
     ax.set_title(f"Hawking-Page transition: {transition.background}", fontsize=11)
     return ax
 
@@ -247,8 +295,9 @@ def plot_screening(screening: Any, axes: Any = None) -> Any:
     ax2.plot(xr, lm * T, "o-", ms=3.5, color=COLORS[0], label=r"$L_{\max}\,T$")
     ax2.plot(xr, ls * T, "s-", ms=3.5, color=COLORS[1], label=r"$L_s\,T$")
     # conformal (AdS5 black brane) values L pi T = 0.869, 0.754 (Rey-Theisen-Yee hep-th/9803135)
-    ax2.axhline(0.869 / np.pi, color=COLORS[0], lw=0.8, ls=":",
-                label=r"AdS$_5$ black brane: $0.869/\pi$, $0.754/\pi$")
+    ax2.axhline(
+        0.869 / np.pi, color=COLORS[0], lw=0.8, ls=":", label=r"AdS$_5$ black brane: $0.869/\pi$, $0.754/\pi$"
+    )
     ax2.axhline(0.754 / np.pi, color=COLORS[1], lw=0.8, ls=":")
     ax2.set_xlabel(r"$T / T_c$" if tc else ("T [" + (unit or "model units") + "]"))
     ax2.set_ylabel(r"$L\,T$ (dimensionless)")
@@ -266,37 +315,72 @@ def write_outputs(out_dir: str | Path, transition: Any, screening: Any | None) -
     data = thermo_data(transition, screening)
     paths = [write_json(d / "thermo.json", data)]
     params = ", ".join(f"{k}={v:g}" for k, v in transition.provenance.parameters.items())
-    comments = [f"background {transition.background} ({params})", transition.regularisation,
-                "free_energy_difference = 2 kappa^2 (F_bb - F_thermal)/(L^3 V_3)"]
-    paths.append(write_csv(
-        d / "free_energy.csv", ["temperature", "horizon", "free_energy_difference", "error"],
-        zip(transition.temperatures.tolist(), transition.horizons.tolist(),
-            transition.free_energy_difference.tolist(), transition.free_energy_error.tolist(),
-            strict=True),
-        comments))
+    comments = [
+        f"background {transition.background} ({params})",
+        transition.regularisation,
+        "free_energy_difference = 2 kappa^2 (F_bb - F_thermal)/(L^3 V_3)",
+    ]
+    paths.append(
+        write_csv(
+            d / "free_energy.csv",
+            ["temperature", "horizon", "free_energy_difference", "error"],
+            zip(
+                transition.temperatures.tolist(),
+                transition.horizons.tolist(),
+                transition.free_energy_difference.tolist(),
+                transition.free_energy_error.tolist(),
+                strict=True,
+            ),
+            comments,
+        )
+    )
     plt = pyplot()
     fig, ax = plt.subplots()
     plot_free_energy(transition, ax)
-    caption(fig, f"{transition.background} ({params}); {transition.construction}; "
-                 "not back-reacted; classical gravity (large N)")
+    caption(
+        fig,
+        f"{transition.background} ({params}); {transition.construction}; "
+        "not back-reacted; classical gravity (large N)",
+    )
     paths.append(write_figure(fig, d / "free_energy.png"))
     plt.close(fig)
     if screening is not None:
-        paths.append(write_csv(
-            d / "screening.csv",
-            ["temperature", "horizon", "max_separation", "screening_length",
-             "spatial_string_tension", "error", "converged"],
-            zip(screening.temperatures.tolist(), screening.horizons.tolist(),
-                screening.max_separation.tolist(), screening.screening_length.tolist(),
-                screening.spatial_string_tension.tolist(), screening.errors.tolist(),
-                screening.converged_points.tolist(), strict=True),
-            [f"background {screening.background} ({params})",
-             f"string scheme {screening.provenance.settings.get('scheme')}"]))
+        paths.append(
+            write_csv(
+                d / "screening.csv",
+                [
+                    "temperature",
+                    "horizon",
+                    "max_separation",
+                    "screening_length",
+                    "spatial_string_tension",
+                    "error",
+                    "converged",
+                ],
+                zip(
+                    screening.temperatures.tolist(),
+                    screening.horizons.tolist(),
+                    screening.max_separation.tolist(),
+                    screening.screening_length.tolist(),
+                    screening.spatial_string_tension.tolist(),
+                    screening.errors.tolist(),
+                    screening.converged_points.tolist(),
+                    strict=True,
+                ),
+                [
+                    f"background {screening.background} ({params})",
+                    f"string scheme {screening.provenance.settings.get('scheme')}",
+                ],
+            )
+        )
         fig, axes = plt.subplots(1, 2, figsize=(10.5, 4.2))
         plot_screening(screening, axes)
         fig.tight_layout()
-        caption(fig, f"{screening.background} ({params}); static Nambu-Goto string in the black "
-                     "brane; classical string (large N, strong coupling)")
+        caption(
+            fig,
+            f"{screening.background} ({params}); static Nambu-Goto string in the black "
+            "brane; classical string (large N, strong coupling)",
+        )
         paths.append(write_figure(fig, d / "screening_length.png"))
         plt.close(fig)
     return paths

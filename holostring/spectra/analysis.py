@@ -129,8 +129,9 @@ def fit_regge(result: SpectrumResult, n_min: int = 0, n_max: int | None = None) 
     )
 
 
-def mass_ratios(numerator: SpectrumResult, denominator: SpectrumResult,
-                reference: int | None = 0) -> tuple[np.ndarray, np.ndarray]:
+def mass_ratios(
+    numerator: SpectrumResult, denominator: SpectrumResult, reference: int | None = 0
+) -> tuple[np.ndarray, np.ndarray]:
     """Mass ratios between two channels, with propagated errors.
 
     Parameters
@@ -251,8 +252,10 @@ def mass_squared_gradient(
     for name in names:
         dlogP, dlogW, dQW, dz_end = _derivative_functions(prob.comp, background, name)
         vals = prob.values
-        integrand = (wP * dlogP(zq, *vals) * (Ls * u + du) ** 2
-                     + wW * (dQW(zq, *vals) + (QW - lam) * dlogW(zq, *vals)) * u**2)
+        integrand = (
+            wP * dlogP(zq, *vals) * (Ls * u + du) ** 2
+            + wW * (dQW(zq, *vals) + (QW - lam) * dlogW(zq, *vals)) * u**2
+        )
         g = float(np.sum(wq * integrand))
         if dz_end is not None and not prob.half:
             dz = float(dz_end(*vals))

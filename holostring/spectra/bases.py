@@ -178,14 +178,14 @@ class NodalBasis:
     right_zero: bool = False
 
     @classmethod
-    def build(cls, m: int, a: float, b: float, alpha: float = 0.0, beta: float = 0.0,
-              right_zero: bool = False) -> NodalBasis:
+    def build(
+        cls, m: int, a: float, b: float, alpha: float = 0.0, beta: float = 0.0, right_zero: bool = False
+    ) -> NodalBasis:
         """Nodes and matrices for m points on [a, b], weight (b - z)^alpha (z - a)^beta."""
         rule = jacobi_rule(int(m), float(alpha), float(beta))
         dom = LinearMap(a, b)
         h = dom.scale
-        return cls(dom.to_z(rule.x), rule.log_weights + np.log(h), rule.bary, rule.D / h, dom,
-                   right_zero)
+        return cls(dom.to_z(rule.x), rule.log_weights + np.log(h), rule.bary, rule.D / h, dom, right_zero)
 
     @property
     def size(self) -> int:

@@ -66,12 +66,15 @@ class Boundaries:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-data view."""
-        return {"name": self.name, "uv": self.uv.to_dict(), "ir": self.ir.to_dict(),
-                "statement": self.statement}
+        return {
+            "name": self.name,
+            "uv": self.uv.to_dict(),
+            "ir": self.ir.to_dict(),
+            "statement": self.statement,
+        }
 
 
-def resolve_boundaries(background: Any, boundary: str | BoundaryKind | None,
-                       delta: float) -> Boundaries:
+def resolve_boundaries(background: Any, boundary: str | BoundaryKind | None, delta: float) -> Boundaries:
     """Validate a requested IR boundary condition against the background's IR end.
 
     Parameters
@@ -96,8 +99,7 @@ def resolve_boundaries(background: Any, boundary: str | BoundaryKind | None,
     """
     kind = background.ir.kind
     z_ir = background.z_ir
-    uv = BoundaryCondition(BoundaryKind.NORMALISABLE, 0.0,
-                           f"normalisable at z = 0 (phi ~ z^{delta:.6g})")
+    uv = BoundaryCondition(BoundaryKind.NORMALISABLE, 0.0, f"normalisable at z = 0 (phi ~ z^{delta:.6g})")
     requested: BoundaryKind | None = None
     if boundary is not None:
         try:
@@ -113,17 +115,25 @@ def resolve_boundaries(background: Any, boundary: str | BoundaryKind | None,
         )
     if kind is IRKind.WALL:
         requested = requested or BoundaryKind.DIRICHLET
-        text = (f"Dirichlet phi(z0) = 0 at the wall z0 = {z_ir:g}"
-                if requested is BoundaryKind.DIRICHLET
-                else f"Neumann phi'(z0) = 0 at the wall z0 = {z_ir:g}")
+        text = (
+            f"Dirichlet phi(z0) = 0 at the wall z0 = {z_ir:g}"
+            if requested is BoundaryKind.DIRICHLET
+            else f"Neumann phi'(z0) = 0 at the wall z0 = {z_ir:g}"
+        )
         return Boundaries(uv, BoundaryCondition(requested, z_ir, text))
     if requested is not None:
         raise InputError(
-            "boundary", f"'{requested}' applies only at a hard wall; background "
-            f"'{background.name}' has IR end '{kind}', whose condition is fixed"
+            "boundary",
+            f"'{requested}' applies only at a hard wall; background "
+            f"'{background.name}' has IR end '{kind}', whose condition is fixed",
         )
     if kind is IRKind.CAP:
-        return Boundaries(uv, BoundaryCondition(
-            BoundaryKind.REGULAR, z_ir, f"regular at the tip z0 = {z_ir:g} where the circle shrinks"))
-    return Boundaries(uv, BoundaryCondition(BoundaryKind.DECAYING, float("inf"),
-                                            "normalisable as z -> infinity"))
+        return Boundaries(
+            uv,
+            BoundaryCondition(
+                BoundaryKind.REGULAR, z_ir, f"regular at the tip z0 = {z_ir:g} where the circle shrinks"
+            ),
+        )
+    return Boundaries(
+        uv, BoundaryCondition(BoundaryKind.DECAYING, float("inf"), "normalisable as z -> infinity")
+    )

@@ -122,8 +122,14 @@ class _Problem:
         hit = self.cache.get(m)
         if hit is not None and hit.lam.size >= min(k, m):
             return hit
-        basis = NodalBasis.build(m, 0.0, self.z_end, alpha=1.0 if self.dirichlet else 0.0,
-                                 beta=self.beta, right_zero=self.dirichlet)
+        basis = NodalBasis.build(
+            m,
+            0.0,
+            self.z_end,
+            alpha=1.0 if self.dirichlet else 0.0,
+            beta=self.beta,
+            right_zero=self.dirichlet,
+        )
         z = basis.z
         _, b, c = self.coefficients(z)
         log_s = self.log_s(z)
@@ -137,8 +143,12 @@ class _Problem:
         with np.errstate(all="ignore"):
             left = np.exp(0.5 * (basis.log_weights + lp))
             right = np.exp(-0.5 * (basis.log_weights + lr))
-        if not (np.all(np.isfinite(left)) and np.all(np.isfinite(right)) and np.all(right > 0)
-                and np.all(np.isfinite(c))):
+        if not (
+            np.all(np.isfinite(left))
+            and np.all(np.isfinite(right))
+            and np.all(right > 0)
+            and np.all(np.isfinite(c))
+        ):
             raise NotApplicableError(
                 "the fluctuation equation has non-finite coefficients inside the domain "
                 f"(0, {self.z_end:g}); check the background's metric and dilaton"
@@ -152,11 +162,9 @@ class _Problem:
             ze = np.array([self.z_end])
             e = interpolation_matrix(basis.domain.to_x(z), basis.bary, basis.domain.to_x(ze))[0]
             e = e * right
-            g_end = float(np.exp(self.log_P(ze)[0] + 2.0 * self.log_s(ze)[0])
-                          * self.dlog_s(ze)[0])
+            g_end = float(np.exp(self.log_P(ze)[0] + 2.0 * self.log_s(ze)[0]) * self.dlog_s(ze)[0])
             if not math.isfinite(g_end):
-                raise NotApplicableError(f"P or Delta/z is not finite at the wall z0 = "
-                                         f"{self.z_end:g}")
+                raise NotApplicableError(f"P or Delta/z is not finite at the wall z0 = {self.z_end:g}")
             C += g_end * np.outer(e, e)
         Y = _lowest_eigenvectors(C, min(k, m))
         # Rayleigh quotients in factored form: free of the rounding of K^T K
@@ -189,8 +197,10 @@ def _lowest_eigenvectors(C: np.ndarray, k: int) -> np.ndarray:
     else:
         _, Y, _, _, info = lapack.dsyevr(C, compute_v=1, range="I", il=1, iu=k, lower=1)
     if info != 0:
-        raise NotApplicableError(f"the symmetric eigensolver failed (LAPACK info {info}) with "
-                                 f"{m} nodes; the coefficients may be too large")
+        raise NotApplicableError(
+            f"the symmetric eigensolver failed (LAPACK info {info}) with "
+            f"{m} nodes; the coefficients may be too large"
+        )
     return Y
 
 
@@ -233,7 +243,7 @@ def _half_line_cut(prob: _Problem, states: int, scale: float) -> float:
     a = prob._call(prob.comp.a, z)
     dxi = np.sqrt(1.0 / np.where(a > 0, a, np.nan))
     good = np.isfinite(U) & np.isfinite(dxi)
-    if not good[-1] and not good[len(z) // 2:].any():
+    if not good[-1] and not good[len(z) // 2 :].any():
         raise NotApplicableError("the Schrodinger potential U is not finite at large z")
     # non-finite U at large z (overflow) counts as a wall of the potential
     U = np.where(np.isfinite(U), U, np.inf)
@@ -244,7 +254,7 @@ def _half_line_cut(prob: _Problem, states: int, scale: float) -> float:
         k = np.sqrt(np.clip(lam - U, 0.0, None))
         return float(np.sum(0.5 * (k[1:] + k[:-1]) * np.diff(xi)) / math.pi)
 
-    tail = U[-len(z) // 20:]
+    tail = U[-len(z) // 20 :]
     lam = max(1.0 / scale**2, float(np.nanmin(U)) + 1.0 / scale**2)
     for _ in range(200):
         if count(lam) >= states + 3:
@@ -293,8 +303,9 @@ def _prepare(background: Any, channel: Channel, boundary: Any) -> tuple[_Problem
     return prob, bounds
 
 
-def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
-           resolution: int | None, tol: float) -> tuple[dict[str, Any], _Problem]:
+def _solve(
+    background: Any, channel: str | Channel, states: int, boundary: Any, resolution: int | None, tol: float
+) -> tuple[dict[str, Any], _Problem]:
     ch = resolve_channel(background, channel)
     if isinstance(states, bool) or not isinstance(states, int | np.integer) or states < 1:
         raise InputError("states", f"must be a positive integer, got {states!r}")
@@ -302,8 +313,9 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
         raise InputError("states", f"at most 200 states, got {states}")
     if not (isinstance(tol, int | float) and 0 < tol < 1):
         raise InputError("tol", f"must be a number in (0, 1), got {tol!r}")
-    if resolution is not None and (not isinstance(resolution, int | np.integer)
-                                   or not 8 <= resolution <= MAX_DEGREE):
+    if resolution is not None and (
+        not isinstance(resolution, int | np.integer) or not 8 <= resolution <= MAX_DEGREE
+    ):
         raise InputError("resolution", f"must be an integer in [8, {MAX_DEGREE}]")
     prob, bounds = _prepare(background, ch, boundary)
     if prob.half:
@@ -334,14 +346,14 @@ def _solve(background: Any, channel: str | Channel, states: int, boundary: Any,
         parts.append(f"only {keep.size} of {states} states resolved with {2 * n} nodes")
     if keep.size and not np.all(ok_err):
         worst = int(np.argmax(err / (tol * np.maximum(1.0, np.abs(lam)))))
-        parts.append(f"state n={worst} differs by {err[worst]:.2e} between {n} and {2 * n} "
-                     f"nodes (tolerance {tol:g})")
+        parts.append(
+            f"state n={worst} differs by {err[worst]:.2e} between {n} and {2 * n} nodes (tolerance {tol:g})"
+        )
     if below.any():
         parts.append("an unresolved eigenvalue lies among the returned ones; numbering uncertain")
     converged = not parts
     if converged:
-        message = (f"{states} states converged: {n} and {2 * n} nodes agree within "
-                   f"{tol:g} (relative)")
+        message = f"{states} states converged: {n} and {2 * n} nodes agree within {tol:g} (relative)"
         if discarded:
             message += f"; {discarded} spurious eigenvalue(s) discarded"
     else:
@@ -452,8 +464,9 @@ def solve_spectrum(
     return result
 
 
-def _assemble(background: Any, out: dict[str, Any], prob: _Problem, states: int, tol: float,
-              resolution: int | None) -> SpectrumResult:
+def _assemble(
+    background: Any, out: dict[str, Any], prob: _Problem, states: int, tol: float, resolution: int | None
+) -> SpectrumResult:
     ch: Channel = out["channel"]
     V, col = out["V_col"]
     lam, err = out["lam"], out["err"]

@@ -19,8 +19,11 @@ SOMMER_R0 = 1.65
 SOMMER_R1 = 1.0
 
 
-def cornell_fit(L: np.ndarray, V: np.ndarray, L_range: tuple[float, float] | None = None,
-                ) -> CornellFit | None:
+def cornell_fit(
+    L: np.ndarray,
+    V: np.ndarray,
+    L_range: tuple[float, float] | None = None,
+) -> CornellFit | None:
     """Fit V = -kappa/L + sigma L + C by linear least squares with uniform weights.
 
     Parameters
@@ -52,14 +55,21 @@ def cornell_fit(L: np.ndarray, V: np.ndarray, L_range: tuple[float, float] | Non
     dof = max(Lf.size - 3, 1)
     s2 = float(resid @ resid) / dof
     cov = s2 * np.linalg.pinv(X.T @ X)
-    rng = (float(Lf.min()), float(Lf.max())) if L_range is None else (
-        float(L_range[0]), float(L_range[1]))
-    return CornellFit(kappa=float(coef[0]), sigma=float(coef[1]), C=float(coef[2]), covariance=cov,
-                      L_range=rng, points=int(Lf.size), rms=math.sqrt(float(resid @ resid) / Lf.size))
+    rng = (float(Lf.min()), float(Lf.max())) if L_range is None else (float(L_range[0]), float(L_range[1]))
+    return CornellFit(
+        kappa=float(coef[0]),
+        sigma=float(coef[1]),
+        C=float(coef[2]),
+        covariance=cov,
+        L_range=rng,
+        points=int(Lf.size),
+        rms=math.sqrt(float(resid @ resid) / Lf.size),
+    )
 
 
-def piece_energy(solver: Solver, p: np.ndarray, g: float, offset: float, m: int | None = None
-                 ) -> dict[str, np.ndarray]:
+def piece_energy(
+    solver: Solver, p: np.ndarray, g: float, offset: float, m: int | None = None
+) -> dict[str, np.ndarray]:
     """L, V, F*, z* of connected strings at parameters p (internal; m: the solver's finer one)."""
     r = solver.fam.evaluate(np.atleast_1d(p), solver.m_hi if m is None else m)
     r["V"] = g * (r["W"] + r["Fstar"] * r["L"] - offset)
@@ -72,8 +82,9 @@ def _root_in_p(fun, a: float, b: float) -> float:
     return float(brentq(fun, a, b, xtol=1e-14, rtol=1e-14, maxiter=200))
 
 
-def screening_length(solver: Solver, g: float, offset: float, E_disc: float
-                     ) -> tuple[float | None, float, str]:
+def screening_length(
+    solver: Solver, g: float, offset: float, E_disc: float
+) -> tuple[float | None, float, str]:
     """Smallest L where the stable connected string's energy reaches the disconnected pair's.
 
     Returns
@@ -91,8 +102,9 @@ def screening_length(solver: Solver, g: float, offset: float, E_disc: float
     i = int(idx[0])
     out = []
     for m in (solver.m_hi, solver.m_lo):
-        pr = _root_in_p(lambda x, m=m: float(piece_energy(solver, x, g, offset, m)["V"][0] - E_disc),
-                        p[i], p[i + 1])
+        pr = _root_in_p(
+            lambda x, m=m: float(piece_energy(solver, x, g, offset, m)["V"][0] - E_disc), p[i], p[i + 1]
+        )
         out.append(float(solver.fam.evaluate(np.array([pr]), m)["L"][0]))
     return out[0], abs(out[0] - out[1]), ""
 
@@ -111,8 +123,13 @@ def max_separation(solver: Solver) -> tuple[float | None, float]:
     return hi, abs(hi - lo)
 
 
-def sommer_scale(target: float, solver: Solver, branches: list[dict], g: float, offset: float,
-                 ) -> tuple[float | None, float, str]:
+def sommer_scale(
+    target: float,
+    solver: Solver,
+    branches: list[dict],
+    g: float,
+    offset: float,
+) -> tuple[float | None, float, str]:
     """Separation r with r^2 dV/dL = target on the minimum-energy configuration.
 
     Returns
@@ -126,8 +143,9 @@ def sommer_scale(target: float, solver: Solver, branches: list[dict], g: float, 
         if b["kind"] == "wall":
             r = math.sqrt(target / (g * b["F0"]))
             values.append(g * b["F0"] * b["L0"] ** 2)
-            if r >= b["L0"] and _is_minimum(r, b["E0"] + g * b["F0"] * (r - b["L0"]), solver,
-                                            branches, g, offset, skip=b):
+            if r >= b["L0"] and _is_minimum(
+                r, b["E0"] + g * b["F0"] * (r - b["L0"]), solver, branches, g, offset, skip=b
+            ):
                 roots.append((r, 0.0))
         if b["kind"] != "connected" or not b["stable"]:
             continue
@@ -138,9 +156,11 @@ def sommer_scale(target: float, solver: Solver, branches: list[dict], g: float, 
         for i in np.nonzero(np.sign(G[:-1]) != np.sign(G[1:]))[0]:
             est = []
             for m in (solver.m_hi, solver.m_lo):
+
                 def fun(x, m=m):
                     rr = solver.fam.evaluate(np.array([x]), m)
                     return float(rr["L"][0] ** 2 * g * rr["Fstar"][0] - target)
+
                 pr = _root_in_p(fun, piece.p_tab[i], piece.p_tab[i + 1])
                 est.append(pr)
             rr = piece_energy(solver, np.array(est), g, offset)
@@ -153,14 +173,19 @@ def sommer_scale(target: float, solver: Solver, branches: list[dict], g: float, 
     if not values:
         return None, 0.0, "no stable string branch"
     lo, hi = float(np.nanmin(values)), float(np.nanmax(values))
-    return None, 0.0, (
-        f"no solution: r^2 dV/dL on the minimum-energy strings stays within [{lo:.4g}, {hi:.4g}]"
-        f" and does not reach {target:g}"
+    return (
+        None,
+        0.0,
+        (
+            f"no solution: r^2 dV/dL on the minimum-energy strings stays within [{lo:.4g}, {hi:.4g}]"
+            f" and does not reach {target:g}"
+        ),
     )
 
 
-def _is_minimum(r: float, V: float, solver: Solver, branches: list[dict], g: float,
-                offset: float, skip: dict) -> bool:
+def _is_minimum(
+    r: float, V: float, solver: Solver, branches: list[dict], g: float, offset: float, skip: dict
+) -> bool:
     """Whether energy V at separation r is the lowest among all branches there."""
     for b in branches:
         if b is skip:
@@ -180,8 +205,9 @@ def _is_minimum(r: float, V: float, solver: Solver, branches: list[dict], g: flo
     return True
 
 
-def branch_energy(solver: Solver, branch: dict, L: float, g: float, offset: float,
-                  m: int | None = None) -> float:
+def branch_energy(
+    solver: Solver, branch: dict, L: float, g: float, offset: float, m: int | None = None
+) -> float:
     """Energy of one connected or wall branch at separation L (internal)."""
     if branch["kind"] == "wall":
         return branch["E0"] + g * branch["F0"] * (L - branch["L0"])
@@ -191,8 +217,9 @@ def branch_energy(solver: Solver, branch: dict, L: float, g: float, offset: floa
     return float(piece_energy(solver, p, g, offset, m)["V"][0])
 
 
-def transitions(solver: Solver, branches: list[dict], which: np.ndarray, grid: np.ndarray,
-                g: float, offset: float) -> list[tuple[float, float, int, int]]:
+def transitions(
+    solver: Solver, branches: list[dict], which: np.ndarray, grid: np.ndarray, g: float, offset: float
+) -> list[tuple[float, float, int, int]]:
     """Separations where the minimum-energy string jumps from one branch to another.
 
     Between neighbouring grid points whose minimum lies on different branches (other than the
@@ -217,9 +244,10 @@ def transitions(solver: Solver, branches: list[dict], which: np.ndarray, grid: n
         hi = min(Ls[k + 1], bi["L_range"][1], bj["L_range"][1])
         est = []
         for m in (solver.m_hi, solver.m_lo):
+
             def diff(L, m=m, bi=bi, bj=bj):
-                return (branch_energy(solver, bi, L, g, offset, m)
-                        - branch_energy(solver, bj, L, g, offset, m))
+                return branch_energy(solver, bi, L, g, offset, m) - branch_energy(solver, bj, L, g, offset, m)
+
             try:
                 est.append(brentq(diff, lo, hi, xtol=1e-14, rtol=1e-14, maxiter=200))
             except ValueError:  # the branches do not cross inside: the switch is an end point

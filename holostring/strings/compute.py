@@ -128,7 +128,8 @@ def compute_potential(
         notes["coulomb_coefficient"] = (
             "not meaningful: the background is not asymptotically AdS, so V(L) has no -kappa/L "
             "Coulomb law at small L; the Cornell kappa and C are fit parameters on the stated "
-            "range only")
+            "range only"
+        )
         messages.append("Cornell kappa " + notes["coulomb_coefficient"])
 
     # tension: effective (largest L tabulated) and the limit g F(z_end)
@@ -157,7 +158,8 @@ def compute_potential(
     if jumps:
         notes["transitions"] = (
             "V(L) is multi-valued; the minimum-energy string jumps between branches (first-order "
-            "transition, a kink in V) at L = " + ", ".join(f"{x[0]:.10g}" for x in jumps))
+            "transition, a kink in V) at L = " + ", ".join(f"{x[0]:.10g}" for x in jumps)
+        )
     Lmax, e = analysis.max_separation(solver)
     if Lmax is not None:
         errors["max_separation"] = e
@@ -171,9 +173,17 @@ def compute_potential(
         notes["r1"] = why1
 
     branches = tuple(
-        StringBranch(kind=b["kind"], stable=b["stable"], L=b["L"], V=b["V"], zstar=b["zstar"],
-                     error=b["error"], L_range=tuple(float(x) for x in b["L_range"]),
-                     label=b["label"], minimum=which[b["mask"]] == j)
+        StringBranch(
+            kind=b["kind"],
+            stable=b["stable"],
+            L=b["L"],
+            V=b["V"],
+            zstar=b["zstar"],
+            error=b["error"],
+            L_range=tuple(float(x) for x in b["L_range"]),
+            label=b["label"],
+            minimum=which[b["mask"]] == j,
+        )
         for j, b in enumerate(raw)
     )
     finite = np.isfinite(V)
@@ -186,8 +196,13 @@ def compute_potential(
             f"{b['scale'][k]:.3g} at L = {b['L'][k]:.6g}"
         )
     for key, val in errors.items():
-        ref_val = {"r0": r0, "r1": r1, "screening_length": Ls, "max_separation": Lmax,
-                   "string_tension": tension_limit}.get(key)
+        ref_val = {
+            "r0": r0,
+            "r1": r1,
+            "screening_length": Ls,
+            "max_separation": Lmax,
+            "string_tension": tension_limit,
+        }.get(key)
         if ref_val and val > max(tol, 1e-12) * abs(ref_val) * 10:
             messages.append(f"{key}: error estimate {val:.2e} is above the tolerance")
     error_estimate = float(np.nanmax(err)) if err.size else 0.0
@@ -210,15 +225,31 @@ def compute_potential(
         },
     )
     res = PotentialResult(
-        L=grid, V=V, force=force, branch_of_minimum=which, branches=branches, scheme=str(sch),
+        L=grid,
+        V=V,
+        force=force,
+        branch_of_minimum=which,
+        branches=branches,
+        scheme=str(sch),
         scheme_offset=g * offset if sch != Scheme.UV_POLE else 0.0,
-        string_tension=tension, string_tension_limit=tension_limit,
+        string_tension=tension,
+        string_tension_limit=tension_limit,
         coulomb_coefficient=None if cornell is None else cornell.kappa,
-        constant=None if cornell is None else cornell.C, cornell=cornell,
-        r0=r0, r1=r1, max_separation=Lmax, screening_length=Ls,
-        error_estimate=error_estimate, converged=converged, message=message, provenance=prov,
-        confinement_point=fam.z_end if fam.confining else None, end_kind=fam.end,
-        notes=notes, errors=errors, physical=_physical(bg, tension, cornell, r0, r1, Lmax, Ls),
+        constant=None if cornell is None else cornell.C,
+        cornell=cornell,
+        r0=r0,
+        r1=r1,
+        max_separation=Lmax,
+        screening_length=Ls,
+        error_estimate=error_estimate,
+        converged=converged,
+        message=message,
+        provenance=prov,
+        confinement_point=fam.z_end if fam.confining else None,
+        end_kind=fam.end,
+        notes=notes,
+        errors=errors,
+        physical=_physical(bg, tension, cornell, r0, r1, Lmax, Ls),
         transitions=tuple((x[0], x[1]) for x in jumps),
     )
     return raise_or_return(res, strict)
@@ -240,8 +271,7 @@ def _asymptotically_ads(bg: Background) -> bool | None:
 
 def _too_large(raw: list[dict], tol: float) -> list[dict]:
     """Branches with an error estimate above ``tol`` times their energy scale."""
-    return [b for b in raw
-            if b["L"].size and np.any(b["error"] > tol * np.maximum(b["scale"], 1e-300))]
+    return [b for b in raw if b["L"].size and np.any(b["error"] > tol * np.maximum(b["scale"], 1e-300))]
 
 
 def _physical(bg: Background, tension, cornell, r0, r1, Lmax, Ls) -> dict[str, Any] | None:

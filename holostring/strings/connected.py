@@ -52,8 +52,9 @@ def _trim(c: np.ndarray, radius: float) -> np.ndarray:
     return c[: max(int(keep[-1]) + 1, 3)].copy()
 
 
-def _series_difference(c: np.ndarray, ystar: np.ndarray, h: np.ndarray,
-                       r_star: np.ndarray | None = None) -> np.ndarray:
+def _series_difference(
+    c: np.ndarray, ystar: np.ndarray, h: np.ndarray, r_star: np.ndarray | None = None
+) -> np.ndarray:
     """``q(ystar + h) - q(ystar)`` for ``q(y) = sum c_k y^k`` with full relative accuracy.
 
     Where ``h >= ystar / 4`` the two sums without ``c_0`` are subtracted (at most a factor ~3
@@ -118,8 +119,9 @@ class ConnectedFamily:
         Q = bg.function(Qe)
         dQ = bg.function(sp.diff(Qe, Z))
         H2 = bg.function(H2e)
-        fam = cls(bg=bg, Q=Q, dQ=dQ, H2=H2, uv=uv_divergence(bg), end=EndKind.OPEN,
-                  z_end=math.inf, anchor=None)
+        fam = cls(
+            bg=bg, Q=Q, dQ=dQ, H2=H2, uv=uv_divergence(bg), end=EndKind.OPEN, z_end=math.inf, anchor=None
+        )
         fam._locate_end()
         cache[key] = fam  # type: ignore[assignment]
         return fam
@@ -130,10 +132,14 @@ class ConnectedFamily:
         if math.isinf(z_ir):
             z = np.geomspace(1e-6, 1e6, 3000)
         else:
-            z = np.unique(np.concatenate([
-                z_ir * np.geomspace(1e-6, 0.5, 1500),
-                z_ir * (1.0 - np.geomspace(0.5, 1e-10, 1500)),
-            ]))
+            z = np.unique(
+                np.concatenate(
+                    [
+                        z_ir * np.geomspace(1e-6, 0.5, 1500),
+                        z_ir * (1.0 - np.geomspace(0.5, 1e-10, 1500)),
+                    ]
+                )
+            )
         with np.errstate(all="ignore"):
             d = np.asarray(self.dQ(z), dtype=float)
         ok = np.isfinite(d)
@@ -146,8 +152,14 @@ class ConnectedFamily:
             from scipy.optimize import brentq
 
             i = int(turn[0])
-            zm = brentq(lambda x: float(self.dQ(np.array([x]))[0]), z[i], z[i + 1],
-                        xtol=1e-300, rtol=1e-15, maxiter=400)
+            zm = brentq(
+                lambda x: float(self.dQ(np.array([x]))[0]),
+                z[i],
+                z[i + 1],
+                xtol=1e-300,
+                rtol=1e-15,
+                maxiter=400,
+            )
             self.end, self.z_end = EndKind.MINIMUM, zm
             self._make_anchor(pH=0)
             rest = z[z > zm * 1.001]
@@ -272,15 +284,15 @@ class ConnectedFamily:
 
     def stretch(self, zs: np.ndarray, ys: np.ndarray) -> np.ndarray:
         """Scale a of the near-singular factor 1/sqrt(a^2 + t^2) (inf: none)."""
-        stretched = self.anchor is not None or self.end in (
-            EndKind.MINIMUM, EndKind.CAP, EndKind.HORIZON)
+        stretched = self.anchor is not None or self.end in (EndKind.MINIMUM, EndKind.CAP, EndKind.HORIZON)
         with np.errstate(all="ignore"):
             a = np.sqrt(2.0 * ys / zs) if stretched else np.full_like(zs, np.inf)
         a = np.where(np.isfinite(a), a, np.inf)
         return np.where(a > 0, a, 1e-300)
 
-    def integrands(self, zs: np.ndarray, ys: np.ndarray, t: np.ndarray
-                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    def integrands(
+        self, zs: np.ndarray, ys: np.ndarray, t: np.ndarray
+    ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """F*, and the L and W integrands in t (Jacobian 2 z* t included) at z = z*(1 - t^2).
 
         ``t`` has shape ``(k, n)``: ``n`` nodes for each of the ``k`` turning points.
@@ -292,8 +304,9 @@ class ConnectedFamily:
         L_int, W_int = self.integrands_flat(zs, ys, Qstar, row, t.ravel())
         return np.sqrt(Qstar), L_int.reshape(k, n), W_int.reshape(k, n)
 
-    def integrands_flat(self, zs: np.ndarray, ys: np.ndarray, Qstar: np.ndarray,
-                        row: np.ndarray, t: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    def integrands_flat(
+        self, zs: np.ndarray, ys: np.ndarray, Qstar: np.ndarray, row: np.ndarray, t: np.ndarray
+    ) -> tuple[np.ndarray, np.ndarray]:
         """The L and W integrands at flat nodes ``t`` belonging to turning points ``zs[row]``.
 
         ``Q - Q*`` is what the accuracy hinges on. Near the anchor it comes from the Taylor
@@ -338,8 +351,7 @@ class ConnectedFamily:
             direct = QR - Qs[rest]
             # less than a digit left in the direct difference: use the mean of dQ on the segment
             lost = (direct < 0.1 * QR) & (hR <= 0.25 * zr[rest])
-            for m_seg, sel in ((4, lost & (hR <= 0.02 * zr[rest])),
-                               (8, lost & (hR > 0.02 * zr[rest]))):
+            for m_seg, sel in ((4, lost & (hR <= 0.02 * zr[rest])), (8, lost & (hR > 0.02 * zr[rest]))):
                 i = np.nonzero(sel)[0]
                 if i.size:
                     direct[i] = -quad.mean_on_segment(self.dQ, zr[rest][i], hR[i], m_seg)

@@ -45,8 +45,9 @@ class Piece:
 class Solver:
     """The connected family of one background, tabulated, with root finding in L (internal)."""
 
-    def __init__(self, fam: ConnectedFamily, L_lo: float, L_hi: float, m_lo: int = M_LO,
-                 m_hi: int = M_HI) -> None:
+    def __init__(
+        self, fam: ConnectedFamily, L_lo: float, L_hi: float, m_lo: int = M_LO, m_hi: int = M_HI
+    ) -> None:
         self.fam = fam
         self.m_lo, self.m_hi = int(m_lo), int(m_hi)
         self.p_lo, self.p_hi = self._p_limits(L_lo, L_hi)
@@ -97,9 +98,12 @@ class Solver:
         cuts = [(p[0], L[0])]
         for i in ext:
             s = 1.0 if sgn[i - 1] > 0 else -1.0  # a maximum when L was rising
-            res = minimize_scalar(lambda x, s=s: -s * float(self.L(x)[0]),
-                                  bounds=(p[i - 1], p[i + 1]), method="bounded",
-                                  options={"xatol": 1e-11})
+            res = minimize_scalar(
+                lambda x, s=s: -s * float(self.L(x)[0]),
+                bounds=(p[i - 1], p[i + 1]),
+                method="bounded",
+                options={"xatol": 1e-11},
+            )
             cuts.append((float(res.x), float(self.L(res.x)[0])))
         cuts.append((p[-1], L[-1]))
         pieces = []
@@ -136,8 +140,7 @@ class Solver:
             new_a = np.where(flip, bi, ai)
             new_fa = np.where(flip, fbi, 0.5 * fai)
             a[idx], fa[idx], b[idx], fb[idx] = new_a, new_fa, c, fc
-            done = (np.abs(fc) <= 2e-16 * np.abs(T[idx])) | (
-                np.abs(c - new_a) <= 1e-15 * (1.0 + np.abs(c)))
+            done = (np.abs(fc) <= 2e-16 * np.abs(T[idx])) | (np.abs(c - new_a) <= 1e-15 * (1.0 + np.abs(c)))
             out[idx[done]] = c[done]
             active[idx[done]] = False
         out[active] = b[active]
@@ -183,8 +186,7 @@ def check_tolerance(tol: float) -> float:
 
 def pair_energy(fam: ConnectedFamily) -> tuple[float, float]:
     """(value, error) of two straight strings to the IR end in the uv-pole scheme (without g)."""
-    return straight_pair_energy(fam.bg, fam.uv, fam.H,
-                                fam.H_near_end if fam.anchor is not None else None)
+    return straight_pair_energy(fam.bg, fam.uv, fam.H, fam.H_near_end if fam.anchor is not None else None)
 
 
 def scheme_offset(fam: ConnectedFamily, scheme: Scheme) -> tuple[float, float]:
@@ -194,8 +196,9 @@ def scheme_offset(fam: ConnectedFamily, scheme: Scheme) -> tuple[float, float]:
     return pair_energy(fam)
 
 
-def build_branches(solver: Solver, grid: np.ndarray, g: float, offset: float,
-                   offset_err: float) -> list[dict]:
+def build_branches(
+    solver: Solver, grid: np.ndarray, g: float, offset: float, offset_err: float
+) -> list[dict]:
     """Every branch on the grid as plain dicts (internal)."""
     fam = solver.fam
     out = []
@@ -214,11 +217,28 @@ def build_branches(solver: Solver, grid: np.ndarray, g: float, offset: float,
             zs, Fs = r_hi["zstar"], r_hi["Fstar"]
         else:
             p = V = err = scale = zs = Fs = np.empty(0)
-        label = "connected" if n_conn == 1 else (
-            f"connected {i + 1} ({'stable' if piece.increasing else 'unstable'})")
-        out.append({"kind": "connected", "stable": bool(piece.increasing), "mask": sel, "L": T,
-                    "V": V, "error": err, "scale": scale, "zstar": zs, "force": g * Fs, "p": p,
-                    "L_range": piece.L_range, "piece": piece, "label": label})
+        label = (
+            "connected"
+            if n_conn == 1
+            else (f"connected {i + 1} ({'stable' if piece.increasing else 'unstable'})")
+        )
+        out.append(
+            {
+                "kind": "connected",
+                "stable": bool(piece.increasing),
+                "mask": sel,
+                "L": T,
+                "V": V,
+                "error": err,
+                "scale": scale,
+                "zstar": zs,
+                "force": g * Fs,
+                "p": p,
+                "L_range": piece.L_range,
+                "piece": piece,
+                "label": label,
+            }
+        )
     if fam.end == EndKind.WALL:
         p_end = np.array([solver.p_hi])
         r_hi, r_lo = fam.evaluate(p_end, solver.m_hi), fam.evaluate(p_end, solver.m_lo)
@@ -228,26 +248,51 @@ def build_branches(solver: Solver, grid: np.ndarray, g: float, offset: float,
         sel = grid > L0
         T = grid[sel]
         V = E0 + g * F0 * (T - L0)
-        out.append({"kind": "wall", "stable": True, "mask": sel, "L": T, "V": V,
-                    "error": np.full(T.shape, e0), "scale": np.maximum(np.abs(V), g * F0 * T),
-                    "zstar": np.full(T.shape, fam.z_end), "force": np.full(T.shape, g * F0),
-                    "p": np.full(T.shape, np.inf), "L_range": (L0, math.inf), "L0": L0,
-                    "E0": E0, "F0": F0, "label": "along the wall"})
+        out.append(
+            {
+                "kind": "wall",
+                "stable": True,
+                "mask": sel,
+                "L": T,
+                "V": V,
+                "error": np.full(T.shape, e0),
+                "scale": np.maximum(np.abs(V), g * F0 * T),
+                "zstar": np.full(T.shape, fam.z_end),
+                "force": np.full(T.shape, g * F0),
+                "p": np.full(T.shape, np.inf),
+                "L_range": (L0, math.inf),
+                "L0": L0,
+                "E0": E0,
+                "F0": F0,
+                "label": "along the wall",
+            }
+        )
     return out
 
 
-def disconnected_branch(fam: ConnectedFamily, grid: np.ndarray, g: float, offset: float,
-                        offset_err: float) -> dict:
+def disconnected_branch(
+    fam: ConnectedFamily, grid: np.ndarray, g: float, offset: float, offset_err: float
+) -> dict:
     """Two straight strings to the horizon: V constant (internal)."""
     E, e = pair_energy(fam)
     val = g * (E - offset)
     err = g * (e + offset_err)
     n = grid.size
-    return {"kind": "disconnected", "stable": True, "mask": np.ones(n, bool), "L": grid.copy(),
-            "V": np.full(n, val), "error": np.full(n, err), "scale": np.full(n, g * abs(E)),
-            "zstar": np.full(n, np.nan), "force": np.zeros(n), "p": np.full(n, np.nan),
-            "L_range": (0.0, math.inf), "label": "disconnected (two straight strings)",
-            "E": val}
+    return {
+        "kind": "disconnected",
+        "stable": True,
+        "mask": np.ones(n, bool),
+        "L": grid.copy(),
+        "V": np.full(n, val),
+        "error": np.full(n, err),
+        "scale": np.full(n, g * abs(E)),
+        "zstar": np.full(n, np.nan),
+        "force": np.zeros(n),
+        "p": np.full(n, np.nan),
+        "L_range": (0.0, math.inf),
+        "label": "disconnected (two straight strings)",
+        "E": val,
+    }
 
 
 def minimum_energy(branches: list[dict], grid: np.ndarray) -> tuple[np.ndarray, ...]:

@@ -15,8 +15,9 @@ from holostring.strings.potential import M_HI, M_LO
 from holostring.strings.results import ProfileResult, StringProfile
 
 
-def half_profile(fam: ConnectedFamily, p: float, points: int = 80, m: int = M_HI
-                 ) -> tuple[np.ndarray, np.ndarray]:
+def half_profile(
+    fam: ConnectedFamily, p: float, points: int = 80, m: int = M_HI
+) -> tuple[np.ndarray, np.ndarray]:
     """Distance from the turning point x(z) = int_z^{z*} (dx/dz) dz on ``points`` depths.
 
     Returns ``(z, x)`` from the boundary (x = L/2) down to the turning point (x = 0).
@@ -34,9 +35,14 @@ def half_profile(fam: ConnectedFamily, p: float, points: int = 80, m: int = M_HI
     return np.concatenate([z[::-1], [zs[0]]]), np.concatenate([x[::-1], [0.0]])
 
 
-def string_profile(background: Background | str, L: float | None = None, *,
-                   zstar: float | None = None, scheme: str = "uv-pole",
-                   points: int = 80) -> ProfileResult:
+def string_profile(
+    background: Background | str,
+    L: float | None = None,
+    *,
+    zstar: float | None = None,
+    scheme: str = "uv-pole",
+    points: int = 80,
+) -> ProfileResult:
     """Profiles x(z) of every static string at separation ``L`` (or of one turning point).
 
     Parameters
@@ -87,8 +93,14 @@ def string_profile(background: Background | str, L: float | None = None, *,
         V = bg.g * float(hi["W"][0] + hi["Fstar"][0] * Ls)
         prof = _connected(z, x, Ls, V, float(zstar), "connected", True, True)
         err = abs(float(hi["L"][0] - lo["L"][0]))
-        return ProfileResult(L=Ls, profiles=(prof,), error_estimate=err, converged=True,
-                             message="converged", provenance=_prov(bg, scheme))
+        return ProfileResult(
+            L=Ls,
+            profiles=(prof,),
+            error_estimate=err,
+            converged=True,
+            message="converged",
+            provenance=_prov(bg, scheme),
+        )
     if not (isinstance(L, int | float) and math.isfinite(L) and L > 0):
         raise InputError("L", f"must be a positive number, got {L}")
     res = compute_potential(bg, L=[float(L)], scheme=scheme)
@@ -101,8 +113,19 @@ def string_profile(background: Background | str, L: float | None = None, *,
         if br.kind == "disconnected":
             zz = np.linspace(0.0, fam.z_end, points)
             x = np.concatenate([np.full(points, -L / 2), np.full(points, L / 2)])
-            profiles.append(StringProfile("disconnected", True, minimum, float(L), V, math.nan,
-                                          x, np.concatenate([zz, zz[::-1]]), (points,)))
+            profiles.append(
+                StringProfile(
+                    "disconnected",
+                    True,
+                    minimum,
+                    float(L),
+                    V,
+                    math.nan,
+                    x,
+                    np.concatenate([zz, zz[::-1]]),
+                    (points,),
+                )
+            )
             continue
         zs = float(br.zstar[0])
         p = float(fam.p_of_zstar(np.array([zs]))[0]) if br.kind == "connected" else 60.0
@@ -115,18 +138,28 @@ def string_profile(background: Background | str, L: float | None = None, *,
             profiles.append(StringProfile("wall", True, minimum, float(L), V, zs, xs, zz))
         else:
             profiles.append(_connected(z, xh, float(L), V, zs, br.label, br.stable, minimum))
-    return ProfileResult(L=float(L), profiles=tuple(profiles), error_estimate=res.error_estimate,
-                         converged=res.converged, message=res.message,
-                         provenance=_prov(bg, scheme))
+    return ProfileResult(
+        L=float(L),
+        profiles=tuple(profiles),
+        error_estimate=res.error_estimate,
+        converged=res.converged,
+        message=res.message,
+        provenance=_prov(bg, scheme),
+    )
 
 
 def _connected(z, xh, L, V, zs, kind, stable, minimum) -> StringProfile:
     x = np.concatenate([-xh, xh[::-1]])
     zz = np.concatenate([z, z[::-1]])
-    return StringProfile(kind if kind.startswith("connected") else "connected", stable, minimum,
-                         L, V, zs, x, zz)
+    return StringProfile(
+        kind if kind.startswith("connected") else "connected", stable, minimum, L, V, zs, x, zz
+    )
 
 
 def _prov(bg: Background, scheme: str) -> Provenance:
-    return Provenance(background=bg.name, parameters=dict(bg.params), frame="string",
-                      settings={"scheme": str(scheme), "gauss_points_per_panel": [M_LO, M_HI]})
+    return Provenance(
+        background=bg.name,
+        parameters=dict(bg.params),
+        frame="string",
+        settings={"scheme": str(scheme), "gauss_points_per_panel": [M_LO, M_HI]},
+    )

@@ -109,8 +109,9 @@ def stretched_rule(a: np.ndarray, m: int) -> tuple[np.ndarray, np.ndarray]:
     return t, w
 
 
-def ragged_rule(a: np.ndarray, m: int, plain_points: int | None = None,
-                tail_points: int | None = None) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def ragged_rule(
+    a: np.ndarray, m: int, plain_points: int | None = None, tail_points: int | None = None
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The rule of :func:`stretched_rule` without its empty panels, flattened over all rows.
 
     Rows with ``a >= PLAIN_ABOVE`` get ``plain_points`` Gauss-Legendre points in ``t``. The other rows

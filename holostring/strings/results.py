@@ -102,12 +102,17 @@ class CornellFit:
         """Plain-JSON view."""
         ek, es, ec = self.errors
         return {
-            "kappa": self.kappa, "kappa_error": ek,
-            "sigma": self.sigma, "sigma_error": es,
-            "C": self.C, "C_error": ec,
+            "kappa": self.kappa,
+            "kappa_error": ek,
+            "sigma": self.sigma,
+            "sigma_error": es,
+            "C": self.C,
+            "C_error": ec,
             "covariance": _arr(self.covariance),
-            "L_range": list(self.L_range), "points": self.points,
-            "rms_residual": self.rms, "weights": self.weights,
+            "L_range": list(self.L_range),
+            "points": self.points,
+            "rms_residual": self.rms,
+            "weights": self.weights,
         }
 
 
@@ -228,9 +233,16 @@ class StringProfile:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {"kind": self.kind, "stable": self.stable, "minimum": self.minimum,
-                "L": self.L, "V": self.V, "zstar": self.zstar,
-                "x": _arr(self.x), "z": _arr(self.z)}
+        return {
+            "kind": self.kind,
+            "stable": self.stable,
+            "minimum": self.minimum,
+            "L": self.L,
+            "V": self.V,
+            "zstar": self.zstar,
+            "x": _arr(self.x),
+            "z": _arr(self.z),
+        }
 
 
 @dataclass(frozen=True)
@@ -254,6 +266,11 @@ class ProfileResult:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {"L": self.L, "profiles": [p.to_dict() for p in self.profiles],
-                "error_estimate": self.error_estimate, "converged": self.converged,
-                "message": self.message, "provenance": self.provenance.to_dict()}
+        return {
+            "L": self.L,
+            "profiles": [p.to_dict() for p in self.profiles],
+            "error_estimate": self.error_estimate,
+            "converged": self.converged,
+            "message": self.message,
+            "provenance": self.provenance.to_dict(),
+        }

@@ -158,8 +158,12 @@ def uv_divergence(bg) -> UVDivergence:
     return out
 
 
-def straight_pair_energy(bg, uv: UVDivergence, H: Callable, H_near_end: Callable | None = None,
-                         ) -> tuple[float, float]:
+def straight_pair_energy(
+    bg,
+    uv: UVDivergence,
+    H: Callable,
+    H_near_end: Callable | None = None,
+) -> tuple[float, float]:
     """Energy (uv-pole scheme, without the factor g) of two straight strings to the IR end.
 
     Returns ``(value, error_estimate)`` of ``2 [int_0^{z_IR} (H - D) dz + P(z_IR)]``.

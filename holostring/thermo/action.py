@@ -37,8 +37,7 @@ def ricci_scalar(diagonal: list[sp.Expr], G_zz: sp.Expr) -> sp.Expr:
     b = sp.log(G_zz) / 2
     da = [sp.diff(x, Z) for x in a]
     s1 = sum(da)
-    bracket = 2 * sum(sp.diff(x, Z, 2) for x in a) + sum(x**2 for x in da) + s1**2 \
-        - 2 * sp.diff(b, Z) * s1
+    bracket = 2 * sum(sp.diff(x, Z, 2) for x in a) + sum(x**2 for x in da) + s1**2 - 2 * sp.diff(b, Z) * s1
     return -bracket / G_zz
 
 

@@ -95,6 +95,7 @@ class ActionDifference:
             warnings.simplefilter("error")
             try:
                 if self.delta_bulk is not None:
+
                     def dl(z: float) -> float:
                         return float(np.real(self.delta_bulk(z, *vals)))
 
@@ -102,6 +103,7 @@ class ActionDifference:
                     total += v
                     err += e
                 if zcut < z_ir:
+
                     def lt(z: float) -> float:
                         return float(np.real(self.thermal_bulk(z, *vals)))
 
@@ -134,12 +136,12 @@ def action_difference(family: ThermalFamily) -> ActionDifference:
         extra = expr.free_symbols - known
         if extra:
             raise NotApplicableError(
-                f"thermal partner uses parameters the black brane lacks: {sorted(map(str, extra))}")
+                f"thermal partner uses parameters the black brane lacks: {sorted(map(str, extra))}"
+            )
     delta = None if dL == 0 else bb.raw_function(dL)
     at_values = bb.substitutions()
     on_shell = all(sp.simplify(r.subs(at_values)) == 0 for r in residuals)
-    return ActionDifference(family, delta, bb.raw_function(L_th), bb.raw_function(constant),
-                            bool(on_shell))
+    return ActionDifference(family, delta, bb.raw_function(L_th), bb.raw_function(constant), bool(on_shell))
 
 
 @lru_cache(maxsize=64)
@@ -165,7 +167,8 @@ def _symbolic_pieces(
         if val.has(sp.oo, -sp.oo, sp.zoo, sp.nan) or isinstance(val, sp.AccumBounds):
             raise NotApplicableError(
                 f"the regularised action difference diverges ({name} limit at z -> 0 is {val}); "
-                "the blackening must approach 1 as 1 - O(z^4) on an asymptotically AdS5 background")
+                "the blackening must approach 1 as 1 - O(z^4) on an asymptotically AdS5 background"
+            )
     dL = sp.simplify(L_bb - L_th)
     constant = sp.simplify(m * ell / 4 + 2 * dk)
     # on shell: R = -20 (L = -8 sqrt(g) e^{-Phi}) on both geometries
@@ -243,7 +246,8 @@ def compute_transition(
         raise NotApplicableError(
             f"background '{fam.name}': the on-shell action integral does not converge ({err}); "
             "the Hawking-Page comparison needs a finite thermal action "
-            "(e^-Phi sqrt(g) (R + 12) must fall off in the IR)") from None
+            "(e^-Phi sqrt(g) (R + 12) must fall off in the IR)"
+        ) from None
     dF = np.empty_like(grid)
     for i, zh in enumerate(grid):
         try:
@@ -256,11 +260,13 @@ def compute_transition(
         raise NotApplicableError(
             f"background '{fam.name}': the on-shell action integral does not converge for any "
             f"horizon ({messages[0] if messages else 'no value'}); the Hawking-Page comparison "
-            "needs a finite thermal action (e^-Phi sqrt(g) (R + 12) must fall off in the IR)")
+            "needs a finite thermal action (e^-Phi sqrt(g) (R + 12) must fall off in the IR)"
+        )
     roots: list[tuple[float, float, float]] = []  # (zh, T, T error)
     finite = np.isfinite(dF)
     for i in range(len(grid) - 1):
         if finite[i] and finite[i + 1] and np.sign(dF[i]) != np.sign(dF[i + 1]):
+
             def fn(x: float) -> float:
                 return act.free_energy(x)[0]
 
@@ -293,8 +299,10 @@ def compute_transition(
             pass
     if np.any(np.isnan(hs)):
         gone = temps[np.isnan(hs)]
-        messages.append(f"no black brane exists at {gone.size} curve temperatures "
-                        f"({gone.min():.4g} to {gone.max():.4g}): T(z_h) has a minimum")
+        messages.append(
+            f"no black brane exists at {gone.size} curve temperatures "
+            f"({gone.min():.4g} to {gone.max():.4g}): T(z_h) has a minimum"
+        )
     curve = np.full_like(temps, math.nan)
     cerr = np.full_like(temps, math.nan)
     for i, zh in enumerate(hs):
@@ -307,8 +315,10 @@ def compute_transition(
             converged = False
             messages.append(str(err))
     if not act.on_shell:
-        messages.append("the Einstein-frame metric is not AdS5: the action is evaluated off shell "
-                        "on the given background (not back-reacted); T_c is a model estimate")
+        messages.append(
+            "the Einstein-frame metric is not AdS5: the action is evaluated off shell "
+            "on the given background (not back-reacted); T_c is a model estimate"
+        )
     t_err = roots[-1][2] if roots else None
     from holostring.units import energy_in_gev
 
@@ -338,8 +348,12 @@ def compute_transition(
             background=fam.name,
             parameters=fam.thermal.params,
             frame="einstein",
-            settings={"quad_rtol": QUAD_RTOL, "scan_points": len(grid), "curve_points": points,
-                      "construction": fam.construction},
+            settings={
+                "quad_rtol": QUAD_RTOL,
+                "scan_points": len(grid),
+                "curve_points": points,
+                "construction": fam.construction,
+            },
         ),
     )
     if strict and not converged:

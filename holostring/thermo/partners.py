@@ -129,8 +129,15 @@ class ThermalFamily:
         if idx.size == 0:
             raise InputError("temperature", f"no horizon in [{lo:.3g}, {hi:.3g}] has T = {T:g}")
         i = int(idx[0])
-        return float(brentq(lambda x: float(self.temperature(x)) - T, grid[i], grid[i + 1],
-                            xtol=1e-15, rtol=4 * np.finfo(float).eps))
+        return float(
+            brentq(
+                lambda x: float(self.temperature(x)) - T,
+                grid[i],
+                grid[i + 1],
+                xtol=1e-15,
+                rtol=4 * np.finfo(float).eps,
+            )
+        )
 
     @property
     def is_ads_factor(self) -> bool:
@@ -204,17 +211,23 @@ def thermal_family(bg: Background) -> ThermalFamily:
         zero = zero.with_units(bg.energy_unit)
         bb = bb.with_units(bg.energy_unit)
         assert bb.blackening is not None
-        return ThermalFamily(zero_name, zero, bb, HORIZON, bb.blackening,
-                             f"catalogue pair {zero_name} / {bb_name}")
+        return ThermalFamily(
+            zero_name, zero, bb, HORIZON, bb.blackening, f"catalogue pair {zero_name} / {bb_name}"
+        )
     if bg.ir.kind is IRKind.HORIZON:
         return _from_black_brane(bg)
     if bg.blackening is not None and bg.blackening != 1:
-        raise NotApplicableError(
-            f"background '{bg.name}': has a blackening factor but no horizon IR end")
+        raise NotApplicableError(f"background '{bg.name}': has a blackening factor but no horizon IR end")
     bb = _add_ads_factor(bg)
     load_background(bb.with_params(**{HORIZON: 0.5 * _finite_scale(bg)}))  # checks the metric
-    return ThermalFamily(bg.name, bg, bb, HORIZON, bb.blackening,  # type: ignore[arg-type]
-                         "AdS5 black-brane factor f = 1 - z^4/zh^4 added to the warp")
+    return ThermalFamily(
+        bg.name,
+        bg,
+        bb,
+        HORIZON,
+        bb.blackening,  # type: ignore[arg-type]
+        "AdS5 black-brane factor f = 1 - z^4/zh^4 added to the warp",
+    )
 
 
 def _finite_scale(bg: Background) -> float:
@@ -225,9 +238,11 @@ def _add_ads_factor(bg: Background) -> Background:
     names = {p.name for p in bg.parameters}
     if HORIZON in names:
         raise NotApplicableError(
-            f"background '{bg.name}': already has a parameter '{HORIZON}' but no horizon")
-    zh_param = Parameter(HORIZON, 1.0, lower=0.0, lower_open=True, dimension=-1.0,
-                         meaning="horizon position; T = 1/(pi zh)")
+            f"background '{bg.name}': already has a parameter '{HORIZON}' but no horizon"
+        )
+    zh_param = Parameter(
+        HORIZON, 1.0, lower=0.0, lower_open=True, dimension=-1.0, meaning="horizon position; T = 1/(pi zh)"
+    )
     zh = zh_param.symbol
     f = 1 - Z**4 / zh**4
     return Background.from_components(
@@ -257,27 +272,41 @@ def _from_black_brane(bg: Background) -> ThermalFamily:
         if at is not None and sp.simplify(at - p.symbol) == 0:
             horizon = p.name
     if horizon is None:
-        raise NotApplicableError(
-            f"background '{bg.name}': the horizon position ({at}) must be one parameter")
+        raise NotApplicableError(f"background '{bg.name}': the horizon position ({at}) must be one parameter")
     f = bg.blackening
     if f is None:
         raise NotApplicableError(
-            f"background '{bg.name}': a horizon needs its blackening factor (metric.blackening)")
+            f"background '{bg.name}': a horizon needs its blackening factor (metric.blackening)"
+        )
     zh = bg.symbols[horizon]
     G_tt = sp.simplify(bg.G_tt / f)
     G_zz = sp.simplify(bg.G_zz * f)
     if zh in G_tt.free_symbols | G_zz.free_symbols | bg.G_xx.free_symbols | bg.dilaton.free_symbols:
         raise NotApplicableError(
             f"background '{bg.name}': the warp or dilaton depends on the horizon parameter "
-            f"'{horizon}'; only the blackening may")
+            f"'{horizon}'; only the blackening may"
+        )
     thermal = Background.from_components(
         f"{bg.name}-thermal",
-        G_tt=G_tt, G_xx=bg.G_xx, G_zz=G_zz,
-        parameters=bg.parameters, values=bg.params,
-        frame=bg.frame, frame_rule=bg.frame_rule, dilaton=bg.dilaton,
+        G_tt=G_tt,
+        G_xx=bg.G_xx,
+        G_zz=G_zz,
+        parameters=bg.parameters,
+        values=bg.params,
+        frame=bg.frame,
+        frame_rule=bg.frame_rule,
+        dilaton=bg.dilaton,
         ir=IREnd(IRKind.INFINITY),
         title=f"{bg.title or bg.name}, thermal (no horizon, IR at infinity)",
-        source=bg.source, energy_unit=bg.energy_unit, origin=bg.origin,
+        source=bg.source,
+        energy_unit=bg.energy_unit,
+        origin=bg.origin,
     )
-    return ThermalFamily(bg.name, thermal, bg, horizon, f,
-                         "user blackening factor; thermal partner f = 1 with the IR at infinity")
+    return ThermalFamily(
+        bg.name,
+        thermal,
+        bg,
+        horizon,
+        f,
+        "user blackening factor; thermal partner f = 1 with the IR at infinity",
+    )

@@ -83,8 +83,10 @@ class TransitionResult:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
-                for k in self.__dataclass_fields__}
+        return {
+            k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
+            for k in self.__dataclass_fields__
+        }
 
 
 @dataclass(frozen=True)
@@ -137,5 +139,7 @@ class ScreeningResult:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
-                for k in self.__dataclass_fields__}
+        return {
+            k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
+            for k in self.__dataclass_fields__
+        }

@@ -116,7 +116,8 @@ def compute_screening(
     except ImportError:
         raise NotApplicableError(
             "screening needs the static-string solver holostring.strings.compute_potential, "
-            "which this installation lacks") from None
+            "which this installation lacks"
+        ) from None
 
     fam = background if isinstance(background, ThermalFamily) else thermal_family(background)
     t_c = None
@@ -185,8 +186,7 @@ def compute_screening(
             background=fam.name,
             parameters=fam.thermal.params,
             frame="string",
-            settings={"scheme": scheme, "tol": tol, "points": int(n),
-                      "construction": fam.construction},
+            settings={"scheme": scheme, "tol": tol, "points": int(n), "construction": fam.construction},
         ),
     )
     if strict and not converged:

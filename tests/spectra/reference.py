@@ -44,8 +44,7 @@ SOFT_WALL_SCALAR = [
     (4.0 * (n + 2), 1e-10, "Colangelo et al. hep-ph/0703316: m_n^2 = 4c(n+2)") for n in range(20)
 ]
 SOFT_WALL_VECTOR = [
-    (4.0 * (n + 1), 1e-10, "Karch-Katz-Son-Stephanov hep-ph/0602229: m_n^2 = 4c(n+1)")
-    for n in range(20)
+    (4.0 * (n + 1), 1e-10, "Karch-Katz-Son-Stephanov hep-ph/0602229: m_n^2 = 4c(n+1)") for n in range(20)
 ]
 REGGE_SLOPE = (4.0, "hep-ph/0602229 and hep-ph/0703316: slope 4c of m_n^2 in n")
 

@@ -13,8 +13,7 @@ runner = CliRunner()
 
 
 def test_json_has_the_promised_keys():
-    res = runner.invoke(app, ["spectrum", "hard-wall", "--states", "3", "--boundary", "neumann",
-                              "--json"])
+    res = runner.invoke(app, ["spectrum", "hard-wall", "--states", "3", "--boundary", "neumann", "--json"])
     assert res.exit_code == 0, res.output
     data = json.loads(res.output)
     for key in ("channel", "masses", "masses_squared", "error_estimate"):
@@ -25,20 +24,34 @@ def test_json_has_the_promised_keys():
 
 
 def test_table_and_files(tmp_path):
-    res = runner.invoke(app, ["spectrum", "soft-wall", "--param", "c=1", "--channel",
-                              "vector-meson", "--states", "4", "--out", str(tmp_path)])
+    res = runner.invoke(
+        app,
+        [
+            "spectrum",
+            "soft-wall",
+            "--param",
+            "c=1",
+            "--channel",
+            "vector-meson",
+            "--states",
+            "4",
+            "--out",
+            str(tmp_path),
+        ],
+    )
     assert res.exit_code == 0, res.output
     assert "Regge fit" in res.output and "converged" in res.output
-    for name in ("spectrum.json", "spectrum.csv", "modes.csv", "potential.png", "modes.png",
-                 "regge.png"):
+    for name in ("spectrum.json", "spectrum.csv", "modes.csv", "potential.png", "modes.png", "regge.png"):
         assert (tmp_path / name).stat().st_size > 0
 
 
 def test_errors_are_one_line_exit_2():
-    for args in (["spectrum", "soft-wall", "--boundary", "neumann"],
-                 ["spectrum", "ads-black-brane"],
-                 ["spectrum", "hard-wall", "--channel", "pion"],
-                 ["spectrum", "hard-wall", "--states", "0"]):
+    for args in (
+        ["spectrum", "soft-wall", "--boundary", "neumann"],
+        ["spectrum", "ads-black-brane"],
+        ["spectrum", "hard-wall", "--channel", "pion"],
+        ["spectrum", "hard-wall", "--states", "0"],
+    ):
         res = runner.invoke(app, args)
         assert res.exit_code == 2, (args, res.output)
         assert "Traceback" not in res.output
@@ -54,7 +67,9 @@ def test_potential_plot_levels_have_distinct_colours():
     plt = pyplot()
     fig, ax = plt.subplots()
     plot_potential(r, ax, levels=10)
-    colours = [tuple(line.get_color()) if not isinstance(line.get_color(), str)
-               else line.get_color() for line in ax.get_lines()[1:]]
+    colours = [
+        tuple(line.get_color()) if not isinstance(line.get_color(), str) else line.get_color()
+        for line in ax.get_lines()[1:]
+    ]
     plt.close(fig)
     assert len(colours) == 10 and len(set(colours)) == 10

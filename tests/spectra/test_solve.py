@@ -56,8 +56,9 @@ def test_hard_wall_bessel_zeros(hard_wall, channel, boundary, rows):
     tol = max(row[1] for row in rows)
     assert rel(r.masses, ref.values(rows)).max() < tol
     # the estimate is honest: it bounds the true error
-    assert np.all(np.abs(r.masses_squared - ref.values(rows) ** 2) <= r.error_estimate + 1e-12
-                  * ref.values(rows) ** 2)
+    assert np.all(
+        np.abs(r.masses_squared - ref.values(rows) ** 2) <= r.error_estimate + 1e-12 * ref.values(rows) ** 2
+    )
 
 
 def test_hard_wall_default_is_dirichlet_and_scales_with_z0():
@@ -167,9 +168,9 @@ def test_gradient_soft_wall(soft_wall):
         assert abs(g["c"] - 4 * (n + 2)) < 1e-8  # d/dc of 4c(n+2)
 
 
-@pytest.mark.parametrize(("name", "boundary"), [("hard-wall", "dirichlet"),
-                                                ("hard-wall", "neumann"),
-                                                ("ads-soliton", None)])
+@pytest.mark.parametrize(
+    ("name", "boundary"), [("hard-wall", "dirichlet"), ("hard-wall", "neumann"), ("ads-soliton", None)]
+)
 def test_gradient_moving_ir_end(name, boundary):
     z0 = 1.3
     bg = load_background(name, z0=z0)
@@ -248,7 +249,14 @@ def test_result_is_frozen_and_serialisable(hard_wall):
     with pytest.raises(dataclasses.FrozenInstanceError):
         r.converged = False  # type: ignore[misc]
     d = r.to_dict()
-    for key in ("channel", "masses", "masses_squared", "error_estimate", "converged", "boundary",
-                "provenance"):
+    for key in (
+        "channel",
+        "masses",
+        "masses_squared",
+        "error_estimate",
+        "converged",
+        "boundary",
+        "provenance",
+    ):
         assert key in d
     assert d["provenance"]["background"] == "hard-wall"

@@ -86,10 +86,10 @@ def ads_black_brane_reference() -> tuple[float, float]:
     The disconnected pair has E = 2 (int_0^1 (H - 1/z^2) dz - 1/z_h) = -2.
     """
     with mp.workdps(30):
-        zmax = mp.findroot(lambda s: mp.diff(lambda x: _bb_L_E(x)[0], s),
-                           (mp.mpf("0.75"), mp.mpf("0.95")), solver="anderson")
+        zmax = mp.findroot(
+            lambda s: mp.diff(lambda x: _bb_L_E(x)[0], s), (mp.mpf("0.75"), mp.mpf("0.95")), solver="anderson"
+        )
         Lmax = _bb_L_E(zmax)[0]
-        zscr = mp.findroot(lambda s: _bb_L_E(s)[1] + 2, (mp.mpf("0.5"), mp.mpf("0.7")),
-                           solver="anderson")
+        zscr = mp.findroot(lambda s: _bb_L_E(s)[1] + 2, (mp.mpf("0.5"), mp.mpf("0.7")), solver="anderson")
         Ls = _bb_L_E(zscr)[0]
         return float(Lmax), float(Ls)

@@ -13,16 +13,38 @@ def test_potential_json_keys_and_values():
     r = runner.invoke(app, ["potential", "ads-black-brane", "--points", "20", "--json"])
     assert r.exit_code == 0, r.output
     d = json.loads(r.output)
-    for key in ("L", "V", "string_tension", "coulomb_coefficient", "r0", "scheme",
-                "error_estimate", "screening_length", "max_separation"):
+    for key in (
+        "L",
+        "V",
+        "string_tension",
+        "coulomb_coefficient",
+        "r0",
+        "scheme",
+        "error_estimate",
+        "screening_length",
+        "max_separation",
+    ):
         assert key in d
     # Rey-Theisen-Yee hep-th/9803135: L_max pi T ~ 0.869 (from memory, 3 digits)
     assert abs(d["max_separation"] - 0.869) < 1e-3
 
 
 def test_potential_out_writes_files(tmp_path):
-    r = runner.invoke(app, ["potential", "soft-wall", "--param", "c=1", "--points", "30",
-                            "--range", "0.1:5", "--out", str(tmp_path)])
+    r = runner.invoke(
+        app,
+        [
+            "potential",
+            "soft-wall",
+            "--param",
+            "c=1",
+            "--points",
+            "30",
+            "--range",
+            "0.1:5",
+            "--out",
+            str(tmp_path),
+        ],
+    )
     assert r.exit_code == 0, r.output
     names = {p.name for p in tmp_path.iterdir()}
     assert {"potential.json", "potential.png", "profiles.png", "potential_minimum.csv"} <= names

@@ -10,8 +10,16 @@ from holostring.errors import ConvergenceError, InputError, NotApplicableError
 from holostring.strings import compute_potential, string_profile
 from tests.strings import reference as ref
 
-CATALOGUE = ["ads", "ads-black-brane", "ads-soliton", "hard-wall", "hard-wall-black-brane",
-             "soft-wall", "soft-wall-black-brane", "d4-soliton"]
+CATALOGUE = [
+    "ads",
+    "ads-black-brane",
+    "ads-soliton",
+    "hard-wall",
+    "hard-wall-black-brane",
+    "soft-wall",
+    "soft-wall-black-brane",
+    "d4-soliton",
+]
 
 
 def test_ads_maldacena_potential_over_six_decades():
@@ -176,10 +184,17 @@ def test_unconverged_is_never_silent():
     assert info.value.partial is not None
 
 
-@pytest.mark.parametrize("kwargs", [
-    {"L_range": (2.0, 1.0)}, {"L_range": (0.0, 1.0)}, {"points": 1}, {"L": [1.0, -2.0]},
-    {"scheme": "nope"}, {"tol": 0.0},
-])
+@pytest.mark.parametrize(
+    "kwargs",
+    [
+        {"L_range": (2.0, 1.0)},
+        {"L_range": (0.0, 1.0)},
+        {"points": 1},
+        {"L": [1.0, -2.0]},
+        {"scheme": "nope"},
+        {"tol": 0.0},
+    ],
+)
 def test_bad_input_names_the_field(kwargs):
     with pytest.raises(InputError):
         compute_potential(load_background("ads"), **kwargs)
@@ -206,8 +221,17 @@ def test_result_is_frozen_and_serialisable():
         res.scheme = "x"
     d = to_jsonable(res.to_dict())
     json.dumps(d)
-    for key in ("L", "V", "string_tension", "coulomb_coefficient", "r0", "scheme",
-                "error_estimate", "screening_length", "max_separation"):
+    for key in (
+        "L",
+        "V",
+        "string_tension",
+        "coulomb_coefficient",
+        "r0",
+        "scheme",
+        "error_estimate",
+        "screening_length",
+        "max_separation",
+    ):
         assert key in d
 
 

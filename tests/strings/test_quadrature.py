@@ -25,8 +25,15 @@ def test_stretched_rule_near_singular_factor(a):
     # a smooth factor on top: int_0^1 cos(t) / sqrt(a^2 + t^2) dt against scipy
     from scipy import integrate
 
-    ref = integrate.quad(lambda x: math.cos(x) / math.hypot(a, x), 0, 1, epsabs=0,
-                         epsrel=1e-13, limit=500, points=[min(a, 0.5)] if a < 1 else None)[0]
+    ref = integrate.quad(
+        lambda x: math.cos(x) / math.hypot(a, x),
+        0,
+        1,
+        epsabs=0,
+        epsrel=1e-13,
+        limit=500,
+        points=[min(a, 0.5)] if a < 1 else None,
+    )[0]
     got = np.sum(w * np.cos(t) / np.sqrt(a * a + t * t))
     assert got == pytest.approx(ref, rel=1e-11)
 

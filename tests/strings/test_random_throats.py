@@ -52,8 +52,14 @@ def _w(z, a, b, d, p):
 
 
 @settings(max_examples=20, deadline=None, suppress_health_check=[HealthCheck.too_slow])
-@given(a=st.floats(0.0, 1.0), b=st.floats(0.0, 0.3), d=st.floats(0.0, 2.0),
-       p=st.floats(-1.0, 1.0), g=st.floats(0.5, 2.0), L0=st.floats(0.3, 3.0))
+@given(
+    a=st.floats(0.0, 1.0),
+    b=st.floats(0.0, 0.3),
+    d=st.floats(0.0, 2.0),
+    p=st.floats(-1.0, 1.0),
+    g=st.floats(0.5, 2.0),
+    L0=st.floats(0.3, 3.0),
+)
 def test_force_identity_on_random_throats(a, b, d, p, g, L0):
     bg = BASE.with_params(a=a, b=b, d=d, p=p, g=g)
     h = 1e-3 * L0

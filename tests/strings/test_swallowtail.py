@@ -61,10 +61,12 @@ def test_three_branches_meet_at_the_cusps_of_L(ridge):
     conn = [b for b in res.branches if b.kind == "connected"]
     assert [b.stable for b in conn] == [True, False, True]
     # the cusps are the local maximum and minimum of L(z*), where dL/dz* = 0 (quad reference)
-    zmax = optimize.minimize_scalar(lambda z: -_L_E(z)[0], bounds=(0.7, 1.0), method="bounded",
-                                    options={"xatol": 1e-9})
-    zmin = optimize.minimize_scalar(lambda z: _L_E(z)[0], bounds=(1.1, 1.5), method="bounded",
-                                    options={"xatol": 1e-9})
+    zmax = optimize.minimize_scalar(
+        lambda z: -_L_E(z)[0], bounds=(0.7, 1.0), method="bounded", options={"xatol": 1e-9}
+    )
+    zmin = optimize.minimize_scalar(
+        lambda z: _L_E(z)[0], bounds=(1.1, 1.5), method="bounded", options={"xatol": 1e-9}
+    )
     L_top, L_bottom = -zmax.fun, zmin.fun
     assert conn[0].L_range[1] == pytest.approx(L_top, rel=1e-9)
     assert conn[1].L_range[1] == pytest.approx(L_top, rel=1e-9)

@@ -57,7 +57,7 @@ HARD_WALL_TC_MEV = (122.0, 0.5, "Herzog hep-th/0608151: hard wall T_c = 122 MeV"
 
 #: Conformal plasma: F = -pi^2 N^2 T^4 / 8, i.e. 2 kappa^2 F / L^3 = -pi^4 T^4 with
 #: L^3/(2 kappa^2) = N^2/(8 pi^2) (Gubser-Klebanov-Peet, hep-th/9602135; Witten hep-th/9803131).
-ADS_FREE_ENERGY_COEFF = (-math.pi**4, 1e-12, "Gubser-Klebanov-Peet hep-th/9602135 (strong coupling)")
+ADS_FREE_ENERGY_COEFF = (-(math.pi**4), 1e-12, "Gubser-Klebanov-Peet hep-th/9602135 (strong coupling)")
 
 #: AdS5 black brane of unit radius is an Einstein space: R = -20 (common practice).
 ADS5_RICCI = (-20, 0, "common practice: R = -d(d+1)/L^2 for AdS_{d+1}, d = 4")
@@ -97,11 +97,11 @@ def ads_black_brane_screening() -> tuple[float, float]:
 
         return 2 / s * (mpmath.quad(f, [0, 1]) - 1)
 
-    s_max = mpmath.findroot(lambda s: mpmath.diff(length, s), (0.8, 0.9), solver="anderson",
-                            tol=1e-30, verify=False)
+    s_max = mpmath.findroot(
+        lambda s: mpmath.diff(length, s), (0.8, 0.9), solver="anderson", tol=1e-30, verify=False
+    )
     assert abs(mpmath.diff(length, s_max)) < 1e-15
-    s_scr = mpmath.findroot(lambda s: energy(s) + 2, (0.6, 0.7), solver="anderson", tol=1e-30,
-                            verify=False)
+    s_scr = mpmath.findroot(lambda s: energy(s) + 2, (0.6, 0.7), solver="anderson", tol=1e-30, verify=False)
     assert abs(energy(s_scr) + 2) < 1e-15
     return float(length(s_max)), float(length(s_scr))
 

@@ -41,8 +41,9 @@ def test_soft_wall_in_mev_with_units():
 
 def test_hard_wall_in_mev_from_rho_mass():
     z0 = float(jn_zeros(0, 1)[0]) / ref.M_RHO_GEV
-    d = json.loads(run("thermo", "hard-wall", "-p", f"z0={z0!r}", "--unit", "GeV", "--json",
-                       "--no-screening").stdout)
+    d = json.loads(
+        run("thermo", "hard-wall", "-p", f"z0={z0!r}", "--unit", "GeV", "--json", "--no-screening").stdout
+    )
     value, tol, _ = ref.HARD_WALL_TC_MEV
     assert abs(d["critical_temperature_mev"] - value) <= tol
 

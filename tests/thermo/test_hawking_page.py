@@ -163,12 +163,15 @@ def test_user_blackening_file(tmp_path):
     assert "user blackening" in fam.construction
     assert math.isinf(fam.wall)
     res = compute_transition(fam)
-    assert res.critical_temperature == pytest.approx(ref.soft_wall_tc_over_sqrt_c() * math.sqrt(2.0), rel=1e-10)
+    assert res.critical_temperature == pytest.approx(
+        ref.soft_wall_tc_over_sqrt_c() * math.sqrt(2.0), rel=1e-10
+    )
 
 
 def test_diverging_blackening_is_refused(tmp_path):
     text = USER_BLACKENING.replace('"1 - (z/zh)^4"', '"1 - (z/zh)^2"').replace(
-        'kind = "horizon"\nat = "zh"', 'kind = "horizon"\nat = "zh"')
+        'kind = "horizon"\nat = "zh"', 'kind = "horizon"\nat = "zh"'
+    )
     path = _write(tmp_path, "badf", text)
     with pytest.raises(NotApplicableError, match="diverges"):
         compute_transition(load_background(path))
@@ -242,7 +245,8 @@ at = "z0"
 def test_user_blackening_not_ads_temperature_and_inversion(tmp_path):
     # f = (1 - (z/zh)^4)(1 + a z^4): T = |f'(zh)|/(4 pi) = (1 + a zh^4)/(pi zh) (horizon regularity)
     text = USER_BLACKENING.replace('"1 - (z/zh)^4"', '"(1 - (z/zh)^4)*(1 + a*z^4)"').replace(
-        "[metric]", '[parameters.a]\ndefault = 0.2\nrange = "[0, 1]"\n\n[metric]')
+        "[metric]", '[parameters.a]\ndefault = 0.2\nrange = "[0, 1]"\n\n[metric]'
+    )
     fam = thermal_family(load_background(_write(tmp_path, "fa", text)))
     assert not fam.is_ads_factor
     zh = np.array([0.3, 0.8, 1.2])
