@@ -269,6 +269,7 @@ def _thermo(res: Any) -> Section:
             ("regularisation", tr.regularisation),
         ]
         facts += [("assumption", a) for a in tr.assumptions]
+        facts.append(("status", ("converged: " if tr.converged else "NOT CONVERGED: ") + tr.message))
         figs.append(
             FigureBlock(
                 "free_energy",
@@ -295,6 +296,9 @@ def _thermo(res: Any) -> Section:
             )
         )
     if sc is not None:
+        facts.append(
+            ("screening status", ("converged: " if sc.converged else "NOT CONVERGED: ") + sc.message)
+        )
         if sc.string_tension_below is not None:
             facts.append(
                 (
