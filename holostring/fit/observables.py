@@ -190,7 +190,8 @@ def _from_potential(bg: Any, obs: Observable, memo: dict[str, Any]) -> Measureme
     value = getattr(res, obs.kind)
     value = getattr(value, "value", value)
     if value is None or not math.isfinite(float(value)):
-        reason = getattr(res, f"{obs.kind}_reason", None) or "no solution"
+        notes = getattr(res, "notes", None) or {}
+        reason = notes.get(obs.kind) or "no solution"
         raise NotApplicableError(f"{obs.spec}: {reason}")
     err = _error_of(res, obs.kind)
     return Measurement(float(value), err)
