@@ -93,14 +93,11 @@ def _profiles(result: object) -> object:
     pot = getattr(result, "potential", None)
     if pot is None:
         return None
-    import numpy as np
-
     from holostring.errors import HolostringError
-    from holostring.strings import string_profile
+    from holostring.strings import profiles_along
 
     try:
-        L_show = np.quantile(pot.L, [0.1, 0.35, 0.6, 0.9])
-        return [string_profile(result.background, float(x), scheme=pot.scheme) for x in L_show]  # type: ignore[attr-defined]
+        return profiles_along(result.background, pot)  # type: ignore[attr-defined]
     except HolostringError:
         return None
 

@@ -68,8 +68,9 @@ def potential(
     Solves the Nambu-Goto string hanging from the boundary for each separation L (no
     interpolation), with an error estimate from a second quadrature resolution.
     """
+    from holostring.background.diagnostics import diagnose
     from holostring.errors import InputError
-    from holostring.strings import compute_potential, string_profile
+    from holostring.strings import compute_potential, profiles_along
 
     if points < 2:
         raise InputError("--points", f"need at least 2 separations, got {points}")
@@ -81,32 +82,19 @@ def potential(
         points=points,
         fit_range=_parse_range(fit_range, "--fit-range"),
     )
-    symbolic = None
-    try:
-        from holostring.background.diagnostics import diagnose
-
-        symbolic = diagnose(bg)
-    except ImportError:  # pragma: no cover - diagnostics not installed
-        symbolic = None
-    except Exception:
-        symbolic = None
+    symbolic = diagnose(bg)
     from holostring.report.potential import summary_lines, write_potential_outputs
 
     if out is not None:
-        import numpy as np
-
-        L_show = np.quantile(res.L, [0.1, 0.35, 0.6, 0.9])
-        profs = [string_profile(bg, float(x), scheme=scheme.value) for x in L_show]
-        paths = write_potential_outputs(res, out, profs, symbolic)
+        paths = write_potential_outputs(res, out, profiles_along(bg, res), symbolic)
         if not as_json:
             typer.echo("wrote " + ", ".join(str(p) for p in paths))
     if as_json:
         data = res.to_dict()
-        if symbolic is not None:
-            data["symbolic"] = {
-                "string_tension": symbolic.string_tension,
-                "coulomb_coefficient": symbolic.coulomb_coefficient,
-            }
+        data["symbolic"] = {
+            "string_tension": symbolic.string_tension,
+            "coulomb_coefficient": symbolic.coulomb_coefficient,
+        }
         echo_json(data)
         return
     for line in summary_lines(res, symbolic):

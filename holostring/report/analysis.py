@@ -27,15 +27,16 @@ def _pm(value: float | None, err: float | None, digits: int = 10) -> str:
     return f"{fmt(value, digits)} ± {err:.1e}"
 
 
-def build_sections(res: Any, profiles: Any = None) -> list[Section]:
+def build_sections(res: Any, profiles: Any = None, fits: dict[str, Any] | None = None) -> list[Section]:
     """Sections of the report, in reading order."""
+    fits = regge_fits(res) if fits is None else fits
     sections = [_background(res), _diagnostics(res)]
     if res.calibration is not None:
         sections.insert(0, _calibration(res.calibration))
     if res.potential is not None:
         sections.append(_potential(res, profiles))
     for name, spec in res.spectra.items():
-        sections.append(_spectrum(name, spec))
+        sections.append(_spectrum(name, spec, fits.get(name)))
     if res.transition is not None or res.screening is not None:
         sections.append(_thermo(res))
     if res.skipped:
@@ -188,15 +189,22 @@ def _potential(res: Any, profiles: Any) -> Section:
     )
 
 
-def _spectrum(name: str, spec: Any) -> Section:
-    from holostring.report import spectrum as rs
+def regge_fits(res: Any) -> dict[str, Any]:
+    """The Regge fit of every spectrum (None where there are too few states), computed once."""
     from holostring.spectra import fit_regge
 
-    fit = None
-    try:
-        fit = fit_regge(spec) if spec.states >= 3 else None
-    except HolostringError:  # too few states: the report simply has no Regge line
-        fit = None
+    fits: dict[str, Any] = {}
+    for name, spec in res.spectra.items():
+        try:
+            fits[name] = fit_regge(spec) if spec.states >= 3 else None
+        except HolostringError:  # too few states: the report simply has no Regge line
+            fits[name] = None
+    return fits
+
+
+def _spectrum(name: str, spec: Any, fit: Any) -> Section:
+    from holostring.report import spectrum as rs
+
     gev = spec.masses_in_gev()
     header = ["n", "m^2", "m", "error (m^2)"] + (["m [GeV]"] if gev is not None else [])
     rows = []
@@ -368,12 +376,13 @@ def _calibration(cal: Any) -> Section:
     )
 
 
-def report_data(res: Any, command: list[str] | None = None) -> dict[str, Any]:
+def report_data(
+    res: Any, command: list[str] | None = None, fits: dict[str, Any] | None = None
+) -> dict[str, Any]:
     """Everything for report.json: numbers with errors, settings, formulas, version, input hash."""
     from holostring.provenance import package_version
     from holostring.report.spectrum import spectrum_data
     from holostring.report.thermo import thermo_data
-    from holostring.spectra import fit_regge
 
     bg = res.background
     data: dict[str, Any] = {
@@ -391,14 +400,8 @@ def report_data(res: Any, command: list[str] | None = None) -> dict[str, Any]:
         data["calibration"] = res.calibration.to_dict()
     if res.potential is not None:
         data["potential"] = res.potential.to_dict()
-    spectra = {}
-    for name, spec in res.spectra.items():
-        try:
-            fit = fit_regge(spec) if spec.states >= 3 else None
-        except HolostringError:
-            fit = None
-        spectra[name] = spectrum_data(spec, fit)
-    data["spectra"] = spectra
+    fits = regge_fits(res) if fits is None else fits
+    data["spectra"] = {name: spectrum_data(spec, fits.get(name)) for name, spec in res.spectra.items()}
     if res.transition is not None:
         data["thermo"] = thermo_data(res.transition, res.screening)
     return data
@@ -409,6 +412,7 @@ def write_report(
 ) -> Any:
     """Write the whole report folder (atomically; an existing folder only with ``force``)."""
     bg = res.background
+    fits = regge_fits(res)
     params = ", ".join(f"{k} = {v:g}" for k, v in bg.params.items())
     intro = (
         f"Background '{bg.name}' at {params}"
@@ -422,8 +426,8 @@ def write_report(
     return write_bundle(
         out,
         f"holostring report: {bg.name}",
-        build_sections(res, profiles),
-        report_data(res, command),
+        build_sections(res, profiles, fits),
+        report_data(res, command, fits),
         force=force,
         intro=intro,
         limits=limits_statement(),

@@ -8,7 +8,7 @@ Three lines in a notebook::
 """
 
 from holostring.strings.compute import compute_potential
-from holostring.strings.profile import string_profile
+from holostring.strings.profile import profiles_along, string_profile
 from holostring.strings.results import (
     CornellFit,
     PotentialResult,
@@ -27,5 +27,6 @@ __all__ = [
     "StringBranch",
     "StringProfile",
     "compute_potential",
+    "profiles_along",
     "string_profile",
 ]

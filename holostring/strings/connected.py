@@ -22,6 +22,7 @@ Cauchy integral, so that ``Q - Q*`` keeps full relative accuracy for ``z_end - z
 from __future__ import annotations
 
 import math
+from collections import OrderedDict
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -32,6 +33,9 @@ from holostring.background.model import Background, IRKind
 from holostring.errors import NotApplicableError
 from holostring.strings import quadrature as quad
 from holostring.strings.schemes import UVDivergence, uv_divergence
+
+#: connected families kept per background structure (one per parameter values)
+FAMILY_CACHE_SIZE = 8
 
 
 class EndKind:
@@ -109,10 +113,11 @@ class ConnectedFamily:
 
         from holostring.background.formula import Z
 
-        key = ("connected-family", tuple(bg.values))
-        cache = bg._compiled.expressions
+        key = tuple(bg.values)
+        cache = bg._compiled.memo.setdefault("connected-families", OrderedDict())
         if key in cache:
-            return cache[key]  # type: ignore[return-value]
+            cache.move_to_end(key)
+            return cache[key]
         m = bg.metric(Frame.STRING)
         Qe = m["G_tt"] * m["G_xx"]
         H2e = m["G_tt"] * m["G_zz"]
@@ -123,7 +128,9 @@ class ConnectedFamily:
             bg=bg, Q=Q, dQ=dQ, H2=H2, uv=uv_divergence(bg), end=EndKind.OPEN, z_end=math.inf, anchor=None
         )
         fam._locate_end()
-        cache[key] = fam  # type: ignore[assignment]
+        cache[key] = fam
+        while len(cache) > FAMILY_CACHE_SIZE:
+            cache.popitem(last=False)  # scans and fits visit many values: keep the latest few
         return fam
 
     def _locate_end(self) -> None:

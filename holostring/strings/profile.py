@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from typing import Any
 
 import numpy as np
 
@@ -33,6 +34,16 @@ def half_profile(
     x = np.sum(w * L_int, axis=1)
     z = zs[0] * (1.0 - tj * tj)
     return np.concatenate([z[::-1], [zs[0]]]), np.concatenate([x[::-1], [0.0]])
+
+
+#: quantiles of a V(L) grid at which profiles are drawn beside it
+SHOWN_QUANTILES = (0.1, 0.35, 0.6, 0.9)
+
+
+def profiles_along(background: Background, potential: Any) -> list[ProfileResult]:
+    """Profiles at a few separations spread over a potential result's L grid (for plots)."""
+    L_show = np.quantile(potential.L, SHOWN_QUANTILES)
+    return [string_profile(background, float(x), scheme=potential.scheme) for x in L_show]
 
 
 def string_profile(

@@ -80,19 +80,11 @@ class UVDivergence:
     def regular_part(self, z: np.ndarray) -> np.ndarray:
         """``H - D`` from the series at small z (used below ``series_radius``, where the direct
         difference of two large numbers would lose digits)."""
-        z = np.asarray(z, dtype=float)
-        out = np.zeros_like(z)
-        for p, c in self.regular:
-            out = out + c * z**p
-        return out
+        return _power_sum(self.regular, z)
 
     def D(self, z: np.ndarray) -> np.ndarray:
         """The divergent part at ``z``."""
-        z = np.asarray(z, dtype=float)
-        out = np.zeros_like(z)
-        for p, c in self.terms:
-            out = out + c * z**p
-        return out
+        return _power_sum(self.terms, z)
 
     def P(self, z: np.ndarray) -> np.ndarray:
         """Antiderivative of D with the cut-off terms dropped (``-1/z`` for ``1/z^2``)."""
@@ -219,3 +211,12 @@ def straight_pair_energy(
             f"scheme straight-strings: the straight-string energy of '{bg.name}' is not finite"
         )
     return 2.0 * b, 2.0 * abs(b - a)
+
+
+def _power_sum(terms: tuple[tuple[float, float], ...], z: np.ndarray) -> np.ndarray:
+    """sum c z^p over (p, c) pairs."""
+    z = np.asarray(z, dtype=float)
+    out = np.zeros_like(z)
+    for p, c in terms:
+        out = out + c * z**p
+    return out

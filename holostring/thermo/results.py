@@ -18,6 +18,14 @@ def _clean(x: Any) -> Any:
     return x
 
 
+def _fields_dict(result: Any) -> dict[str, Any]:
+    """Every dataclass field as plain data (arrays to lists), provenance as its own dict."""
+    return {
+        k: _clean(getattr(result, k)) if k != "provenance" else result.provenance.to_dict()
+        for k in result.__dataclass_fields__
+    }
+
+
 @dataclass(frozen=True)
 class TransitionResult:
     """Hawking-Page comparison of the thermal and black-brane geometries.
@@ -83,10 +91,7 @@ class TransitionResult:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {
-            k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
-            for k in self.__dataclass_fields__
-        }
+        return _fields_dict(self)
 
 
 @dataclass(frozen=True)
@@ -139,7 +144,4 @@ class ScreeningResult:
 
     def to_dict(self) -> dict[str, Any]:
         """Plain-JSON view."""
-        return {
-            k: _clean(getattr(self, k)) if k != "provenance" else self.provenance.to_dict()
-            for k in self.__dataclass_fields__
-        }
+        return _fields_dict(self)
